@@ -1,0 +1,89 @@
+/**
+ * Shared pieces of the command-line interface: option parsing, errors, output.
+ * @module
+ */
+import { parseArgs, type ParseArgsConfig } from "node:util";
+import { InputError } from "../errors.ts";
+
+/** One CLI command. */
+export interface Command {
+  readonly name: string;
+  /** One line for the command list. */
+  readonly summary: string;
+  /** Full `--help` text. */
+  readonly help: string;
+  run(args: string[]): Promise<number>;
+}
+
+type Options = NonNullable<ParseArgsConfig["options"]>;
+
+/** Parse options; unknown options and bad values become {@link InputError}. */
+export function parseOptions<O extends Options>(
+  args: string[],
+  options: O,
+  positionals: { min: number; max: number; names: string },
+) {
+  let parsed;
+  try {
+    parsed = parseArgs({
+      args,
+      options: { ...options, help: { type: "boolean", short: "h" }, debug: { type: "boolean" } },
+      allowPositionals: true,
+      strict: true,
+    });
+  } catch (err) {
+    throw new InputError(`${(err as Error).message.split("\n")[0]}; see --help`, {
+      field: "options",
+    });
+  }
+  const n = parsed.positionals.length;
+  if (!parsed.values.help && (n < positionals.min || n > positionals.max)) {
+    throw new InputError(
+      `found ${n} arguments: expected ${positionals.names}; see --help`,
+      { field: "arguments" },
+    );
+  }
+  return parsed;
+}
+
+/** A whole number option, or the default. */
+export function intOption(
+  v: string | undefined,
+  name: string,
+  dflt: number | undefined,
+  min = 1,
+): number | undefined {
+  if (v === undefined) return dflt;
+  if (!/^[+-]?\d+$/.test(v) || Number(v) < min) {
+    throw new InputError(`found \`${v}\`: expected a whole number ≥ ${min}`, {
+      field: `--${name}`,
+    });
+  }
+  return Number(v);
+}
+
+/** Format seconds as `1h02m`, `3m05s`, `12s`. */
+export function formatDuration(seconds: number): string {
+  if (!Number.isFinite(seconds) || seconds < 0) return "?";
+  const s = Math.round(seconds);
+  if (s >= 3600) {
+    return `${Math.floor(s / 3600)}h${String(Math.floor((s % 3600) / 60)).padStart(2, "0")}m`;
+  }
+  if (s >= 60) return `${Math.floor(s / 60)}m${String(s % 60).padStart(2, "0")}s`;
+  return `${s}s`;
+}
+
+/** Write a line to stdout. */
+export function say(line = ""): void {
+  console.log(line);
+}
+
+/** Write a line to stderr. */
+export function warn(line: string): void {
+  console.error(line);
+}
+
+/** Number of logical cores, for the default `--threads`. */
+export function defaultThreads(): number {
+  return Math.max(1, navigator.hardwareConcurrency || 1);
+}

@@ -1,0 +1,2 @@
+/** RV data files. @module */
+export * from "./rv_csv.ts";

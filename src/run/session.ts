@@ -1,0 +1,426 @@
+/**
+ * A sampling session: the one writer of a run directory. Starts or resumes
+ * the ensemble, appends flushed blocks, checkpoints after each block, keeps
+ * the status file current, and stops cleanly on SIGINT/SIGTERM or a full disk.
+ * @module
+ */
+import {
+  createEvaluator,
+  deserializeState,
+  type EnsembleState,
+  type Evaluator,
+  initEnsemble,
+  serializeState,
+  step as ensembleStep,
+} from "../../samplers/mod.ts";
+import { InputError } from "../errors.ts";
+import { CompiledModel, type ModelPayload } from "../model/posterior.ts";
+import type { Problem, ProblemData } from "../spec/resolve.ts";
+import type { MoveSpec } from "../spec/types.ts";
+import { appendBlock, truncateChain } from "./chain_file.ts";
+import { loadCheckpoint, saveCheckpoint } from "./checkpoint.ts";
+import { runPath } from "./layout.ts";
+import { acquireLock, type RunLock } from "./lock.ts";
+import {
+  dataHash,
+  LEADING_COLUMNS,
+  type Manifest,
+  modelHash,
+  readManifest,
+  RUN_FORMAT_VERSION,
+  RVWALK_VERSION,
+  writeManifest,
+} from "./manifest.ts";
+import { writeStatus } from "./status.ts";
+
+/** Progress reported to the caller after each step (the caller rate-limits output). */
+export interface Progress {
+  readonly step: number;
+  readonly targetSteps: number;
+  readonly stepsPerSecond: number;
+  readonly acceptance: number;
+  readonly flushedStep: number;
+}
+
+/** How a session ended. */
+export interface SessionResult {
+  readonly state: "finished" | "stopped" | "failed";
+  readonly step: number;
+  readonly message?: string;
+}
+
+export interface SessionOptions {
+  readonly threads: number;
+  /** Called after every step. */
+  readonly onProgress?: (p: Progress) => void;
+  /** Stop when this returns true (checked after every flush). */
+  readonly shouldStop?: (step: number) => boolean | Promise<boolean>;
+  /** Override flush settings (tests). */
+  readonly flushSeconds?: number;
+  readonly flushSteps?: number;
+  /** Handle SIGINT/SIGTERM (default true). */
+  readonly handleSignals?: boolean;
+}
+
+const MODEL_URL = new URL("../model/posterior.ts", import.meta.url).href;
+
+/** Create a run directory and sample `steps` steps. */
+export async function startRun(
+  dir: string,
+  problem: Problem,
+  options: SessionOptions & { steps: number; walkers: number; seed: number },
+): Promise<SessionResult> {
+  await prepareDir(dir);
+  const lock = await acquireLock(dir);
+  try {
+    const spec = {
+      ...problem.spec,
+      sampler: {
+        ...problem.spec.sampler,
+        steps: options.steps,
+        walkers: options.walkers,
+        seed: options.seed,
+      },
+    };
+    const payload: ModelPayload = { spec, data: problem.data };
+    const model = new CompiledModel(payload);
+    const dims = model.dimensions;
+    if (dims === 0) {
+      throw new InputError("nothing to sample: every parameter is fixed", { file: spec.specPath });
+    }
+    if (options.walkers <= 2 * dims) {
+      throw new InputError(
+        `walkers must exceed twice the dimensions: walkers=${options.walkers}, dimensions=${dims}; use at least ${
+          2 * dims + 2
+        }`,
+        { file: spec.specPath, field: "sampler.walkers" },
+      );
+    }
+    if (options.walkers % 2 !== 0) {
+      throw new InputError(
+        `walkers must be even (two equal halves): walkers=${options.walkers}`,
+        { file: spec.specPath, field: "sampler.walkers" },
+      );
+    }
+    const names = spec.instruments.map((i) => i.name);
+    const manifest: Manifest = {
+      format: "rvwalk-run",
+      formatVersion: RUN_FORMAT_VERSION,
+      rvwalkVersion: RVWALK_VERSION,
+      createdAt: new Date().toISOString(),
+      spec,
+      data: plainData(problem.data),
+      dataHash: await dataHash(problem.data, names),
+      modelHash: await modelHash(spec),
+      parameters: model.parameters.map((p) => ({
+        key: p.key,
+        unit: p.unit,
+        transform: p.transform,
+      })),
+      columns: [...LEADING_COLUMNS, ...model.keys],
+      walkers: options.walkers,
+      seed: options.seed,
+      moves: spec.sampler.moves,
+    };
+    await writeManifest(dir, manifest);
+    await writeStatus(dir, {
+      state: "starting",
+      step: 0,
+      targetSteps: options.steps,
+      threads: options.threads,
+      stepsPerSecond: NaN,
+      startedAt: new Date().toISOString(),
+    });
+    const evaluator = await createEvaluator(
+      { moduleUrl: MODEL_URL, exportName: "createLogPosterior", payload },
+      { threads: options.threads, dimensions: dims },
+    );
+    try {
+      const state = await initEnsemble(model.startInternal(), {
+        walkers: options.walkers,
+        seed: options.seed,
+        scale: model.ballScales(),
+        evaluator,
+      });
+      await saveCheckpoint(dir, {
+        step: 0,
+        chainBytes: 0,
+        targetSteps: options.steps,
+        savedAt: new Date().toISOString(),
+        state: serializeState(state),
+      });
+      return await loop(dir, {
+        model,
+        manifest,
+        state,
+        evaluator,
+        target: options.steps,
+        moves: spec.sampler.moves,
+        flushedBytes: 0,
+      }, options);
+    } finally {
+      await evaluator.close();
+    }
+  } finally {
+    await lock.release();
+  }
+}
+
+/** Continue a run from its checkpoint, to `steps` total (default: the recorded target). */
+export async function resumeRun(
+  dir: string,
+  options: SessionOptions & { steps?: number; addSteps?: number },
+): Promise<SessionResult & { notes: string[] }> {
+  const manifest = await readManifest(dir);
+  const lock: RunLock = await acquireLock(dir);
+  const notes: string[] = [];
+  try {
+    const loaded = await loadCheckpoint(dir);
+    if (loaded.usedFallback) {
+      notes.push(`newest checkpoint unusable (${loaded.reason}); resumed from the previous one`);
+    }
+    const cp = loaded.checkpoint;
+    await truncateChain(dir, cp.chainBytes);
+    const payload: ModelPayload = { spec: manifest.spec, data: typedData(manifest.data) };
+    const model = new CompiledModel(payload);
+    const state = deserializeState(cp.state as Parameters<typeof deserializeState>[0]);
+    if (state.step !== cp.step) {
+      throw new InputError(`checkpoint step ${cp.step} disagrees with its state (${state.step})`, {
+        file: runPath(dir, "checkpoint"),
+      });
+    }
+    const target = options.addSteps !== undefined
+      ? cp.step + options.addSteps
+      : options.steps ?? cp.targetSteps;
+    await writeStatus(dir, {
+      state: "starting",
+      step: cp.step,
+      targetSteps: target,
+      threads: options.threads,
+      stepsPerSecond: NaN,
+      startedAt: new Date().toISOString(),
+    });
+    const evaluator = await createEvaluator(
+      { moduleUrl: MODEL_URL, exportName: "createLogPosterior", payload },
+      { threads: options.threads, dimensions: model.dimensions },
+    );
+    try {
+      const r = await loop(dir, {
+        model,
+        manifest,
+        state,
+        evaluator,
+        target,
+        moves: manifest.moves,
+        flushedBytes: cp.chainBytes,
+      }, options);
+      return { ...r, notes };
+    } finally {
+      await evaluator.close();
+    }
+  } finally {
+    await lock.release();
+  }
+}
+
+interface LoopInput {
+  model: CompiledModel;
+  manifest: Manifest;
+  state: EnsembleState;
+  evaluator: Evaluator;
+  target: number;
+  moves: readonly MoveSpec[];
+  flushedBytes: number;
+}
+
+async function loop(
+  dir: string,
+  input: LoopInput,
+  options: SessionOptions,
+): Promise<SessionResult> {
+  const { model, evaluator, target, moves } = input;
+  let state = input.state;
+  const W = state.walkers;
+  const D = state.dimensions;
+  const columns = LEADING_COLUMNS.length + D;
+  const flushSteps = options.flushSteps ?? input.manifest.spec.sampler.flushSteps;
+  const flushMs = 1000 * (options.flushSeconds ?? input.manifest.spec.sampler.flushSeconds);
+  let block = new Float64Array(Math.min(flushSteps, 64) * W * columns);
+  let blockSteps = 0;
+  let blockFirst = state.step;
+  let chainBytes = input.flushedBytes;
+  let lastFlush = performance.now();
+  const startedAt = new Date().toISOString();
+  const phys = new Float64Array(D);
+  const theta = new Float64Array(D);
+  let stopRequested = false;
+  const onSignal = () => {
+    stopRequested = true;
+  };
+  const handle = options.handleSignals ?? true;
+  if (handle) {
+    Deno.addSignalListener("SIGINT", onSignal);
+    Deno.addSignalListener("SIGTERM", onSignal);
+  }
+  // Speed over a sliding window of recent steps.
+  const times: number[] = [];
+  let accSum = 0;
+  let accCount = 0;
+  const flush = async () => {
+    if (blockSteps === 0) return;
+    chainBytes = await appendBlock(dir, {
+      firstStep: blockFirst,
+      steps: blockSteps,
+      walkers: W,
+      columns,
+    }, block);
+    await saveCheckpoint(dir, {
+      step: state.step,
+      chainBytes,
+      targetSteps: target,
+      savedAt: new Date().toISOString(),
+      state: serializeState(state),
+    });
+    blockFirst = state.step;
+    blockSteps = 0;
+    lastFlush = performance.now();
+  };
+  const status = (s: "running" | "finished" | "stopped" | "failed", message?: string) =>
+    writeStatus(dir, {
+      state: s,
+      step: state.step,
+      targetSteps: target,
+      threads: options.threads,
+      stepsPerSecond: rate(),
+      startedAt,
+      message,
+    });
+  const rate = () =>
+    times.length < 2 ? NaN : (1000 * (times.length - 1)) / (times[times.length - 1]! - times[0]!);
+  try {
+    await status("running");
+    while (state.step < target && !stopRequested) {
+      const r = await ensembleStep(state, { evaluator, moves });
+      state = r.state;
+      const need = (blockSteps + 1) * W * columns;
+      if (need > block.length) {
+        const bigger = new Float64Array(Math.min(flushSteps, 2 * (blockSteps + 1)) * W * columns);
+        bigger.set(block.subarray(0, blockSteps * W * columns));
+        block = bigger;
+      }
+      let o = blockSteps * W * columns;
+      for (let w = 0; w < W; w++) {
+        for (let d = 0; d < D; d++) theta[d] = state.positions[w * D + d]!;
+        model.toPhysical(theta, phys);
+        block[o++] = state.logProb[w]!;
+        const a = r.info.acceptedThisStep[w]!;
+        block[o++] = a;
+        accSum += a;
+        accCount++;
+        for (let d = 0; d < D; d++) block[o++] = phys[d]!;
+      }
+      blockSteps++;
+      const now = performance.now();
+      times.push(now);
+      if (times.length > 200) times.shift();
+      if (blockSteps >= flushSteps || now - lastFlush >= flushMs || state.step >= target) {
+        await flush();
+        await status("running");
+        if (options.shouldStop !== undefined && await options.shouldStop(state.step)) break;
+      }
+      options.onProgress?.({
+        step: state.step,
+        targetSteps: target,
+        stepsPerSecond: rate(),
+        acceptance: accCount === 0 ? NaN : accSum / accCount,
+        flushedStep: blockFirst,
+      });
+    }
+    await flush();
+    const done = state.step >= target || !stopRequested;
+    await status(done ? "finished" : "stopped");
+    return { state: done ? "finished" : "stopped", step: state.step };
+  } catch (err) {
+    const message = (err as Error).message;
+    // The last checkpoint names the chain length it matches; resume truncates any partial block.
+    try {
+      await status("failed", message);
+    } catch {
+      // disk may be full; the checkpoint on disk is still the last good one
+    }
+    return { state: "failed", step: blockFirst, message };
+  } finally {
+    if (handle) {
+      Deno.removeSignalListener("SIGINT", onSignal);
+      Deno.removeSignalListener("SIGTERM", onSignal);
+    }
+  }
+}
+
+async function prepareDir(dir: string): Promise<void> {
+  try {
+    const info = await Deno.stat(dir);
+    if (!info.isDirectory) {
+      throw new InputError("output path is a file: expected a run directory", {
+        file: dir,
+        field: "--out",
+      });
+    }
+    for await (const e of Deno.readDir(dir)) {
+      if (e.name === "manifest.json" || e.name === "chain.bin") {
+        throw new InputError(
+          "already holds a run: use `resume` to continue it, or choose another --out",
+          { file: dir, field: "--out" },
+        );
+      }
+    }
+  } catch (err) {
+    if (err instanceof InputError) throw err;
+    if (!(err instanceof Deno.errors.NotFound)) {
+      throw new InputError(`cannot use output path: ${(err as Error).message}`, {
+        file: dir,
+        field: "--out",
+      });
+    }
+    try {
+      await Deno.mkdir(dir, { recursive: true });
+    } catch (e) {
+      throw new InputError(`cannot create run directory: ${(e as Error).message}`, {
+        file: dir,
+        field: "--out",
+      });
+    }
+  }
+  // Fail early if not writable.
+  try {
+    const probe = `${dir}/.write-probe-${Deno.pid}`;
+    await Deno.writeTextFile(probe, "");
+    await Deno.remove(probe);
+  } catch (e) {
+    throw new InputError(`run directory is not writable: ${(e as Error).message}`, {
+      file: dir,
+      field: "--out",
+    });
+  }
+}
+
+/** Plain arrays for JSON. */
+export function plainData(d: ProblemData): Manifest["data"] {
+  return {
+    time: Array.from(d.time),
+    rv: Array.from(d.rv),
+    rvErr: Array.from(d.rvErr),
+    instrument: Array.from(d.instrument),
+  };
+}
+
+/** Typed arrays from the manifest's JSON. */
+export function typedData(d: Manifest["data"]): ProblemData {
+  return {
+    time: Float64Array.from(d.time),
+    rv: Float64Array.from(d.rv),
+    rvErr: Float64Array.from(d.rvErr),
+    instrument: Int32Array.from(d.instrument),
+    count: d.time.length,
+  };
+}

@@ -8,14 +8,18 @@ import type { Command } from "./_common.ts";
 import { checkCommand } from "./check.ts";
 import { demoCommand } from "./demo.ts";
 import { exportCommand } from "./export.ts";
+import { mergeCommand } from "./merge.ts";
 import { resumeCommand, runCommand } from "./run.ts";
 import { summaryCommand } from "./summary.ts";
+import { watchCommand } from "./watch.ts";
 
 const COMMANDS: readonly Command[] = [
   demoCommand,
   checkCommand,
   runCommand,
   resumeCommand,
+  watchCommand,
+  mergeCommand,
   summaryCommand,
   exportCommand,
 ];

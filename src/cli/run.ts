@@ -24,11 +24,14 @@ Options:
   --seed S           random seed (default: [sampler] seed)
   --threads T        worker threads evaluating the posterior (default: cores)
   --until-converged  stop early once the convergence criteria hold
+  --detach           keep sampling in the background after you log out;
+                     prints how to watch and stop it (output in DIR/log.txt)
   --no-ui            plain progress lines even on a terminal
   --debug            show stack traces on errors
 
-Stop with Ctrl-C: the chain is flushed and checkpointed; continue with
-\`rvwalk resume DIR\`.`,
+On a terminal the live dashboard is shown: q leaves it while the run goes on
+in the background, Ctrl-C stops the run. Stopping (Ctrl-C, or kill -INT/-TERM
+PID) flushes the chain and checkpoints; continue with \`rvwalk resume DIR\`.`,
   async run(args) {
     const { values, positionals } = parseOptions(args, {
       out: { type: "string" },
@@ -37,6 +40,7 @@ Stop with Ctrl-C: the chain is flushed and checkpointed; continue with
       seed: { type: "string" },
       threads: { type: "string" },
       "until-converged": { type: "boolean" },
+      detach: { type: "boolean" },
       "no-ui": { type: "boolean" },
     }, { min: 1, max: 1, names: "SPEC" });
     if (values.help) return say(this.help), 0;
@@ -89,6 +93,14 @@ Options:
     }, { min: 1, max: 1, names: "DIR" });
     if (values.help) return say(this.help), 0;
     const dir = positionals[0]!;
+    const interactive = !values["no-ui"] && Deno.stdout.isTerminal() && Deno.stdin.isTerminal();
+    if (interactive) {
+      const childArgs = ["resume", dir, "--no-ui"];
+      for (const k of ["steps", "more", "threads"] as const) {
+        if (values[k] !== undefined) childArgs.push(`--${k}`, values[k]!);
+      }
+      return await background(dir, childArgs, { detached: false });
+    }
     const result = await resumeRun(dir, {
       steps: intOption(values.steps, "steps", undefined),
       addSteps: intOption(values.more, "more", undefined),
@@ -116,4 +128,57 @@ function reportEnd(dir: string, r: SessionResult): number {
       );
       return 1;
   }
+}
+
+/**
+ * Run the sampler as a child process writing to DIR/log.txt. Detached: in a
+ * session of its own (survives logout), and we return at once. Otherwise the
+ * dashboard is shown; q leaves it with the run going on, Ctrl-C (which reaches
+ * the child too, being in our process group) stops the run cleanly.
+ */
+async function background(dir: string, childArgs: string[], options: { detached: boolean }): Promise<number> {
+  await Deno.mkdir(dir, { recursive: true });
+  const main = new URL("./main.ts", import.meta.url).pathname;
+  // The child writes straight to DIR/log.txt, so it never depends on our pipes.
+  const child = new Deno.Command("/bin/sh", {
+    args: ["-c", 'log="$1"; shift; exec "$@" >>"$log" 2>&1', "sh", runPath(dir, "log"), Deno.execPath(), "run", "-A", main, ...childArgs],
+    stdin: "null",
+    stdout: "null",
+    stderr: "null",
+    detached: options.detached,
+  }).spawn();
+  if (options.detached) {
+    child.unref();
+    say(`running in the background as process ${child.pid}; output in ${runPath(dir, "log")}`);
+    say(`watch:  deno task rvwalk watch ${dir}`);
+    say(`stop:   kill -INT ${child.pid}   (flushes and checkpoints; then: deno task rvwalk resume ${dir})`);
+    return 0;
+  }
+  const { RunWatcher } = await import("../run/snapshot.ts");
+  const { runDashboard } = await import("../../tui/mod.ts");
+  const watcher = new RunWatcher(dir);
+  // Wait for the manifest before drawing.
+  for (let i = 0; i < 100; i++) {
+    try {
+      await Deno.stat(runPath(dir, "manifest"));
+      break;
+    } catch {
+      await new Promise((r) => setTimeout(r, 100));
+    }
+  }
+  let exited = false;
+  const status = child.status.then((s) => {
+    exited = true;
+    return s;
+  });
+  await runDashboard(() => watcher.load());
+  if (!exited) {
+    say(`the run goes on in process ${child.pid}; output in ${runPath(dir, "log")}`);
+    say(`watch again: deno task rvwalk watch ${dir}   stop: kill -INT ${child.pid}`);
+    child.unref();
+    Deno.exit(0);
+  }
+  const s = await status;
+  say(`run process ended with code ${s.code}; see ${runPath(dir, "log")}`);
+  return s.code === 0 ? 0 : 1;
 }

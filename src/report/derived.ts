@@ -93,13 +93,16 @@ export function derivedDraws(
           ? timePeriastronFromConjunction(epoch(row), orbit)
           : timeConjunctionFromPeriastron(epoch(row), orbit);
         if (incl && mtrue && impact && aR && lam) {
-          const inc = inclinationFromImpact(impact(row), aR(row), e, wr);
+          const inc = inclinationFromImpact(impact(row), aR(row), { eccentricity: e, argPeriastron: wr });
           incl[i] = (inc * 180) / Math.PI;
           // With i known: the mass function holds m sin i, so solve it for K / sin i.
           mtrue[i] = minimumMass(P, k(row) / Math.sin(inc), e, star[i]!) * SOLAR_TO_JUPITER_MASS;
           if (psi && radius && prot && vsini) {
-            const istar = starInclinationFromRotation(vsini(row), prot[i]!, radius[i]!);
-            psi[i] = (obliquity(istar, inc, (lam(row) * Math.PI) / 180) * 180) / Math.PI;
+            // Rotation gives only sin i★: i★ and π − i★ fit equally, so draw the branch too.
+            const i0 = starInclinationFromRotation(vsini(row), { rotationPeriod: prot[i]!, radius: radius[i]! });
+            const istar = rng() < 0.5 ? i0 : Math.PI - i0;
+            psi[i] = (obliquity((lam(row) * Math.PI) / 180, { starInclination: istar, orbitInclination: inc }) * 180) /
+              Math.PI;
           }
         }
       }

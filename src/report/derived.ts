@@ -25,6 +25,7 @@ import {
   semiMajorAxis,
   SOLAR_TO_EARTH_MASS,
   SOLAR_TO_JUPITER_MASS,
+  trueMass,
 } from "../physics/mod.ts";
 import type { ChainData } from "../run/chain_file.ts";
 import type { Manifest } from "../run/manifest.ts";
@@ -84,10 +85,10 @@ export function derivedDraws(
         const P = period(row);
         const e = ecc(row);
         const wr = (omega(row) * Math.PI) / 180;
-        const msini = minimumMass(P, k(row), e, star[i]!);
+        const msini = minimumMass({ period: P, semiAmplitude: k(row), eccentricity: e }, star[i]!);
         mj[i] = msini * SOLAR_TO_JUPITER_MASS;
         me[i] = msini * SOLAR_TO_EARTH_MASS;
-        a[i] = semiMajorAxis(P, star[i]!, msini);
+        a[i] = semiMajorAxis(P, star[i]!, { planetMass: msini });
         const orbit = { period: P, eccentricity: e, argPeriastron: wr };
         other[i] = p.epochKind === "tc"
           ? timePeriastronFromConjunction(epoch(row), orbit)
@@ -95,8 +96,9 @@ export function derivedDraws(
         if (incl && mtrue && impact && aR && lam) {
           const inc = inclinationFromImpact(impact(row), aR(row), { eccentricity: e, argPeriastron: wr });
           incl[i] = (inc * 180) / Math.PI;
-          // With i known: the mass function holds m sin i, so solve it for K / sin i.
-          mtrue[i] = minimumMass(P, k(row) / Math.sin(inc), e, star[i]!) * SOLAR_TO_JUPITER_MASS;
+          mtrue[i] = trueMass({ period: P, semiAmplitude: k(row), eccentricity: e }, star[i]!, {
+            inclination: inc,
+          }) * SOLAR_TO_JUPITER_MASS;
           if (psi && radius && prot && vsini) {
             // Rotation gives only sin i★: i★ and π − i★ fit equally, so draw the branch too.
             const i0 = starInclinationFromRotation(vsini(row), { rotationPeriod: prot[i]!, radius: radius[i]! });

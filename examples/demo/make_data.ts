@@ -8,7 +8,7 @@
 import seedrandom from "seedrandom";
 import { addKeplerianRv, timePeriastronFromConjunction } from "../../src/model/keplerian.ts";
 
-const rng = seedrandom("tavi-2207-demo");
+const rng = seedrandom("tavi-2207-demo-2");
 const normal = () => {
   const u = 1 - rng();
   const v = rng();

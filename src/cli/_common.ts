@@ -17,13 +17,18 @@ export interface Command {
 
 type Options = NonNullable<ParseArgsConfig["options"]>;
 
+/** Parsed option values typed from their declarations. */
+export type OptionValues<O extends Options> =
+  & { [K in keyof O]?: O[K]["type"] extends "boolean" ? boolean : string }
+  & { help?: boolean; debug?: boolean };
+
 /** Parse options; unknown options and bad values become {@link InputError}. */
 export function parseOptions<O extends Options>(
   args: string[],
   options: O,
   positionals: { min: number; max: number; names: string },
-) {
-  let parsed;
+): { values: OptionValues<O>; positionals: string[] } {
+  let parsed: { values: Record<string, unknown>; positionals: string[] };
   try {
     parsed = parseArgs({
       args,
@@ -43,7 +48,7 @@ export function parseOptions<O extends Options>(
       { field: "arguments" },
     );
   }
-  return parsed;
+  return { values: parsed.values as OptionValues<O>, positionals: parsed.positionals };
 }
 
 /** A whole number option, or the default. */

@@ -45,7 +45,7 @@ export function describeProblem(problem: Problem, model: CompiledModel): string[
       }
     }
     lines.push(
-      `  instrument ${ins.name}: ${n} points, median-ish error ${(errSum / n).toFixed(2)} m/s${
+      `  instrument ${ins.name}: ${n} points, mean error ${(errSum / n).toFixed(2)} m/s${
         ins.defaulted ? " (defaults: no [[instrument]] in the spec)" : ""
       }`,
     );

@@ -9,6 +9,7 @@ import { checkCommand } from "./check.ts";
 import { demoCommand } from "./demo.ts";
 import { exportCommand } from "./export.ts";
 import { mergeCommand } from "./merge.ts";
+import { shardsCommand } from "./shards.ts";
 import { resumeCommand, runCommand } from "./run.ts";
 import { summaryCommand } from "./summary.ts";
 import { watchCommand } from "./watch.ts";
@@ -20,6 +21,7 @@ const COMMANDS: readonly Command[] = [
   resumeCommand,
   watchCommand,
   mergeCommand,
+  shardsCommand,
   summaryCommand,
   exportCommand,
 ];

@@ -1,6 +1,8 @@
 /** `rvwalk watch DIR`: the live dashboard on any run directory. @module */
 import { RunWatcher } from "../run/snapshot.ts";
 import { readManifest } from "../run/manifest.ts";
+import { isShardDir } from "../run/shards.ts";
+import { watchShardDirectory } from "./shards.ts";
 import { type Command, formatDuration, intOption, parseOptions, say } from "./_common.ts";
 
 export const watchCommand: Command = {
@@ -23,9 +25,10 @@ Options:
     }, { min: 1, max: 1, names: "DIR" });
     if (values.help) return say(this.help), 0;
     const dir = positionals[0]!;
+    const interval = intOption(values["interval-ms"], "interval-ms", 1000, 500)!;
+    if (await isShardDir(dir)) return await watchShardDirectory(dir, { intervalMs: interval });
     await readManifest(dir); // fail early, with a located message, on a non-run
     const watcher = new RunWatcher(dir);
-    const interval = intOption(values["interval-ms"], "interval-ms", 1000, 500)!;
     if (!Deno.stdout.isTerminal() || !Deno.stdin.isTerminal()) {
       const s = await watcher.load();
       say(`${dir}: ${s.state}, step ${s.step}/${s.totalSteps}, ${s.walkers} walkers` +

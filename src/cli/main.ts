@@ -9,6 +9,7 @@ import { checkCommand } from "./check.ts";
 import { demoCommand } from "./demo.ts";
 import { exportCommand } from "./export.ts";
 import { mergeCommand } from "./merge.ts";
+import { plotCommand } from "./plot.ts";
 import { shardsCommand } from "./shards.ts";
 import { resumeCommand, runCommand } from "./run.ts";
 import { summaryCommand } from "./summary.ts";
@@ -24,6 +25,7 @@ const COMMANDS: readonly Command[] = [
   shardsCommand,
   summaryCommand,
   exportCommand,
+  plotCommand,
 ];
 
 function usage(): string {

@@ -3,6 +3,7 @@ import { InputError } from "../errors.ts";
 import { CompiledModel } from "../model/posterior.ts";
 import { runPath } from "../run/layout.ts";
 import { resumeRun, type SessionResult, startRun } from "../run/session.ts";
+import { convergenceStopper } from "../run/stopper.ts";
 import { loadProblem } from "../spec/mod.ts";
 import { type Command, defaultThreads, intOption, parseOptions, say, warn } from "./_common.ts";
 import { describeProblem } from "./describe.ts";
@@ -60,12 +61,14 @@ PID) flushes the chain and checkpoints; continue with \`rvwalk resume DIR\`.`,
     say(
       `sampling: ${walkers} walkers × ${steps} steps, seed ${seed}, ${threads} thread(s) → ${values.out}`,
     );
+    const untilConverged = values["until-converged"] ?? s.untilConverged;
     const result = await startRun(values.out, problem, {
       steps,
       walkers,
       seed,
       threads,
       onProgress: progressPrinter(),
+      shouldStop: untilConverged ? stopper(values.out) : undefined,
     });
     return reportEnd(values.out, result);
   },
@@ -80,15 +83,17 @@ Continues the run in DIR from its last checkpoint; the chain continues exactly
 as if the run had never stopped (same numbers for the same seed).
 
 Options:
-  --steps N      total steps to reach (default: the run's target)
-  --more N       take N steps beyond the checkpoint instead
-  --threads T    worker threads (default: cores)
-  --no-ui        plain progress lines even on a terminal`,
+  --steps N          total steps to reach (default: the run's target)
+  --more N           take N steps beyond the checkpoint instead
+  --threads T        worker threads (default: cores)
+  --until-converged  stop early once the convergence criteria hold
+  --no-ui            plain progress lines even on a terminal`,
   async run(args) {
     const { values, positionals } = parseOptions(args, {
       steps: { type: "string" },
       more: { type: "string" },
       threads: { type: "string" },
+      "until-converged": { type: "boolean" },
       "no-ui": { type: "boolean" },
     }, { min: 1, max: 1, names: "DIR" });
     if (values.help) return say(this.help), 0;
@@ -99,6 +104,7 @@ Options:
       for (const k of ["steps", "more", "threads"] as const) {
         if (values[k] !== undefined) childArgs.push(`--${k}`, values[k]!);
       }
+      if (values["until-converged"]) childArgs.push("--until-converged");
       return await background(dir, childArgs, { detached: false });
     }
     const result = await resumeRun(dir, {
@@ -106,11 +112,25 @@ Options:
       addSteps: intOption(values.more, "more", undefined),
       threads: intOption(values.threads, "threads", defaultThreads())!,
       onProgress: progressPrinter(),
+      shouldStop: values["until-converged"] ? stopper(dir) : undefined,
     });
     for (const n of result.notes) say(`note: ${n}`);
     return reportEnd(dir, result);
   },
 };
+
+function stopper(dir: string): (step: number) => Promise<boolean> {
+  return convergenceStopper(dir, {
+    onCheck: (c) =>
+      say(
+        c.converged
+          ? `step ${c.step}: convergence criteria met; stopping (a flag, never a proof of convergence)`
+          : `step ${c.step}: not converged yet (${c.reasons[0] ?? "criteria not met"}${
+            c.reasons.length > 1 ? `, +${c.reasons.length - 1} more` : ""
+          })`,
+      ),
+  });
+}
 
 function reportEnd(dir: string, r: SessionResult): number {
   switch (r.state) {

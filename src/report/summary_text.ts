@@ -4,12 +4,13 @@
  */
 import type { Interval } from "./quantiles.ts";
 import { roundByUncertainty } from "./rounding.ts";
+import { selectKeys } from "./summary_formats.ts";
 import type { Summary } from "./summary.ts";
 
 /** Lines of the text summary. */
 export function summaryText(
   s: Summary,
-  options: { dir: string; truth?: Record<string, number> },
+  options: { dir: string; truth?: Record<string, number>; params?: readonly string[] },
 ): string[] {
   const lines: string[] = [];
   lines.push(`posterior summary: ${s.title || "(untitled)"}  [${options.dir}]`);
@@ -43,9 +44,12 @@ export function summaryText(
     }
     rows.push(row);
   };
-  for (const [k, iv] of Object.entries(s.parameters)) add(k, iv);
+  const wanted = options.params && options.params.length > 0
+    ? new Set(selectKeys([...Object.keys(s.parameters), ...Object.keys(s.derived)], options.params))
+    : undefined;
+  for (const [k, iv] of Object.entries(s.parameters)) if (!wanted || wanted.has(k)) add(k, iv);
   const derivedStart = rows.length;
-  for (const [k, iv] of Object.entries(s.derived)) add(k, iv);
+  for (const [k, iv] of Object.entries(s.derived)) if (!wanted || wanted.has(k)) add(k, iv);
   const widths = rows[0]!.map((_, c) => Math.max(...rows.map((r) => r[c]!.length)));
   const fmtRow = (r: string[]) =>
     r.map((cell, c) => (c === 0 || c >= 4 ? cell.padEnd(widths[c]!) : cell.padStart(widths[c]!)))

@@ -1,0 +1,50 @@
+/**
+ * Stopping a run once the convergence criteria hold (`--until-converged`):
+ * after a flush, at most every `everyMs`, the chain appended since the last
+ * check is read into streaming diagnostics and the criteria are tested
+ * (R-hat, bulk ESS, steps/τ as in `[sampler]`). A met criterion is a flag,
+ * never a proof of convergence.
+ * @module
+ */
+import { ChainFollower } from "./follow.ts";
+import { readManifest } from "./manifest.ts";
+
+/** What the last check found. */
+export interface StopCheck {
+  readonly step: number;
+  readonly converged: boolean;
+  readonly reasons: readonly string[];
+}
+
+/** A `shouldStop` callback for a session, and the last check it made. */
+export function convergenceStopper(
+  dir: string,
+  options: { everyMs?: number; onCheck?: (c: StopCheck) => void } = {},
+): (step: number) => Promise<boolean> {
+  const every = options.everyMs ?? 10_000;
+  let follower: ChainFollower | undefined;
+  let keys: string[] = [];
+  let thresholds = { rhat: 1.01, essBulk: 400, stepsPerTau: 50 };
+  let last = -Infinity;
+  return async (step) => {
+    const now = performance.now();
+    if (now - last < every) return false;
+    last = now;
+    if (follower === undefined) {
+      const m = await readManifest(dir);
+      keys = m.parameters.map((p) => p.key);
+      thresholds = m.spec.sampler.thresholds;
+      follower = new ChainFollower(dir, { walkers: m.walkers, columns: m.columns.length, capacity: 512 });
+    }
+    await follower.poll();
+    if (follower.stream.keptSteps < 16) return false;
+    const r = follower.stream.report({
+      columns: keys.map((_, i) => 2 + i),
+      names: keys,
+      logPosteriorColumn: 0,
+      thresholds,
+    });
+    options.onCheck?.({ step, converged: r.converged, reasons: r.reasons });
+    return r.converged;
+  };
+}

@@ -2,6 +2,7 @@
 import { readChain } from "../run/chain_file.ts";
 import { readManifest } from "../run/manifest.ts";
 import { startRun } from "../run/session.ts";
+import { convergenceStopper } from "../run/stopper.ts";
 import { summarise } from "../report/summary.ts";
 import { summaryText } from "../report/summary_text.ts";
 import { loadProblem } from "../spec/mod.ts";
@@ -39,15 +40,28 @@ The spec and data used are in examples/demo/.`,
     say("rvwalk demo: invented star Tavi-2207, two invented spectrographs, two planted planets");
     for (const line of describeProblem(problem, model)) say(line);
     say(
-      `sampling: ${s.walkers} walkers × ${steps} steps, seed ${s.seed}, ${threads} thread(s) → ${out}`,
+      `sampling: ${s.walkers} walkers, up to ${steps} steps${
+        s.untilConverged && values.steps === undefined ? " (stopping once converged)" : ""
+      }, seed ${s.seed}, ${threads} thread(s) → ${out}`,
     );
     const t0 = performance.now();
     const r = await startRun(out, problem, {
       steps,
       walkers: s.walkers,
       seed: s.seed,
+      thin: s.thin,
       threads,
       onProgress: progressPrinter(),
+      shouldStop: s.untilConverged && values.steps === undefined
+        ? convergenceStopper(out, {
+          onCheck: (c) =>
+            say(
+              c.converged
+                ? `step ${c.step}: convergence criteria met; stopping (a flag, never a proof)`
+                : `step ${c.step}: not converged yet (${c.reasons[0] ?? "criteria not met"})`,
+            ),
+        })
+        : undefined,
     });
     if (r.state !== "finished") {
       say(`demo ${r.state} at step ${r.step}${r.message ? `: ${r.message}` : ""}`);

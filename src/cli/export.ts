@@ -10,8 +10,10 @@ export const exportCommand: Command = {
   summary: "write a run's chain as CSV",
   help: `Usage: rvwalk export DIR --csv FILE [--burn N] [--thin K]
 
-Writes one row per (step, walker): step,walker,log_posterior, then one column
-per parameter key in physical units (days, m/s, degrees). Steps before N are
+Writes one row per (stored step, walker): step,walker,log_posterior, then one
+column per parameter key in physical units (days, m/s, degrees). \`step\` is
+the sampler step after which the row was recorded (1-based; a run with
+[sampler] thin = K stores steps K, 2K, …). Steps before N are
 dropped (default 0: nothing dropped); every K-th step is kept (default 1).
 Use - as FILE for standard output.`,
   async run(args) {
@@ -28,15 +30,18 @@ Use - as FILE for standard output.`,
     const m = await readManifest(dir);
     const burn = intOption(values.burn, "burn", 0, 0)!;
     const thin = intOption(values.thin, "thin", 1, 1)!;
+    // Stored row k holds sampler step (k + 1)·storeThin; --burn counts sampler steps.
+    const storeThin = m.thin ?? 1;
+    const from = Math.ceil(burn / storeThin);
     const read = await readChain(dir, { walkers: m.walkers, columns: m.columns.length }, {
-      from: burn,
+      from,
       thin,
     });
     const keys = m.parameters.map((p) => p.key);
     const out: (string | number)[][] = [["step", "walker", "log_posterior", ...keys]];
     const { data, walkers, columns } = read.chain;
     for (let s = 0; s < read.chain.steps; s++) {
-      const step = burn + s * thin;
+      const step = (from + s * thin + 1) * storeThin;
       for (let w = 0; w < walkers; w++) {
         const o = (s * walkers + w) * columns;
         const row: (string | number)[] = [step, w, data[o]!];

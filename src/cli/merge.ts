@@ -25,7 +25,9 @@ command that resubmits them.`,
       names: "one or more run directories",
     });
     if (values.help) return say(this.help), 0;
-    if (values.out === undefined) throw new InputError("missing: expected --out DIR", { field: "--out" });
+    if (values.out === undefined) {
+      throw new InputError("missing: expected --out DIR", { field: "--out" });
+    }
     if (positionals.length === 1 && await isShardDir(positionals[0]!)) {
       return await mergeShardDirectory(positionals[0]!, values.out);
     }

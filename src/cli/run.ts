@@ -23,6 +23,7 @@ Options:
   --steps N          steps to take (default: [sampler] steps)
   --walkers W        walkers, even and > 2 × free parameters (default: [sampler] walkers)
   --seed S           random seed (default: [sampler] seed)
+  --thin K           store every K-th step (default: [sampler] thin, 1)
   --threads T        worker threads evaluating the posterior (default: cores)
   --until-converged  stop early once the convergence criteria hold
   --detach           keep sampling in the background after you log out;
@@ -39,6 +40,7 @@ PID) flushes the chain and checkpoints; continue with \`rvwalk resume DIR\`.`,
       steps: { type: "string" },
       walkers: { type: "string" },
       seed: { type: "string" },
+      thin: { type: "string" },
       threads: { type: "string" },
       "until-converged": { type: "boolean" },
       detach: { type: "boolean" },
@@ -62,10 +64,34 @@ PID) flushes the chain and checkpoints; continue with \`rvwalk resume DIR\`.`,
       `sampling: ${walkers} walkers × ${steps} steps, seed ${seed}, ${threads} thread(s) → ${values.out}`,
     );
     const untilConverged = values["until-converged"] ?? s.untilConverged;
+    const thin = intOption(values.thin, "thin", s.thin)!;
+    const interactive = !values["no-ui"] && Deno.stdout.isTerminal() && Deno.stdin.isTerminal();
+    if (values.detach || interactive) {
+      const childArgs = [
+        "run",
+        positionals[0]!,
+        "--out",
+        values.out,
+        "--no-ui",
+        "--steps",
+        String(steps),
+        "--walkers",
+        String(walkers),
+        "--seed",
+        String(seed),
+        "--thin",
+        String(thin),
+        "--threads",
+        String(threads),
+      ];
+      if (untilConverged) childArgs.push("--until-converged");
+      return await background(values.out, childArgs, { detached: !!values.detach });
+    }
     const result = await startRun(values.out, problem, {
       steps,
       walkers,
       seed,
+      thin,
       threads,
       onProgress: progressPrinter(),
       shouldStop: untilConverged ? stopper(values.out) : undefined,
@@ -156,12 +182,26 @@ function reportEnd(dir: string, r: SessionResult): number {
  * dashboard is shown; q leaves it with the run going on, Ctrl-C (which reaches
  * the child too, being in our process group) stops the run cleanly.
  */
-async function background(dir: string, childArgs: string[], options: { detached: boolean }): Promise<number> {
+async function background(
+  dir: string,
+  childArgs: string[],
+  options: { detached: boolean },
+): Promise<number> {
   await Deno.mkdir(dir, { recursive: true });
   const main = new URL("./main.ts", import.meta.url).pathname;
   // The child writes straight to DIR/log.txt, so it never depends on our pipes.
   const child = new Deno.Command("/bin/sh", {
-    args: ["-c", 'log="$1"; shift; exec "$@" >>"$log" 2>&1', "sh", runPath(dir, "log"), Deno.execPath(), "run", "-A", main, ...childArgs],
+    args: [
+      "-c",
+      'log="$1"; shift; exec "$@" >>"$log" 2>&1',
+      "sh",
+      runPath(dir, "log"),
+      Deno.execPath(),
+      "run",
+      "-A",
+      main,
+      ...childArgs,
+    ],
     stdin: "null",
     stdout: "null",
     stderr: "null",
@@ -171,7 +211,9 @@ async function background(dir: string, childArgs: string[], options: { detached:
     child.unref();
     say(`running in the background as process ${child.pid}; output in ${runPath(dir, "log")}`);
     say(`watch:  deno task rvwalk watch ${dir}`);
-    say(`stop:   kill -INT ${child.pid}   (flushes and checkpoints; then: deno task rvwalk resume ${dir})`);
+    say(
+      `stop:   kill -INT ${child.pid}   (flushes and checkpoints; then: deno task rvwalk resume ${dir})`,
+    );
     return 0;
   }
   const { RunWatcher } = await import("../run/snapshot.ts");

@@ -39,7 +39,9 @@ Options:
     const dir = positionals[0]!;
     const format = values.json ? "json" : values.format ?? "text";
     if (!["text", "json", "csv", "md", "latex"].includes(format)) {
-      throw new InputError(`found \`${format}\`: expected text, json, csv, md or latex`, { field: "--format" });
+      throw new InputError(`found \`${format}\`: expected text, json, csv, md or latex`, {
+        field: "--format",
+      });
     }
     const m = await readManifest(dir);
     const read = await readChain(dir, { walkers: m.walkers, columns: m.columns.length });

@@ -31,12 +31,22 @@ Options:
     const watcher = new RunWatcher(dir);
     if (!Deno.stdout.isTerminal() || !Deno.stdin.isTerminal()) {
       const s = await watcher.load();
-      say(`${dir}: ${s.state}, step ${s.step}/${s.totalSteps}, ${s.walkers} walkers` +
-        (Number.isFinite(s.stepsPerSecond)
-          ? `, ${s.stepsPerSecond.toFixed(0)} steps/s, ETA ${formatDuration((s.totalSteps - s.step) / s.stepsPerSecond)}`
-          : ""));
+      say(
+        `${dir}: ${s.state}, step ${s.step}/${s.totalSteps}, ${s.walkers} walkers` +
+          (Number.isFinite(s.stepsPerSecond)
+            ? `, ${s.stepsPerSecond.toFixed(0)} steps/s, ETA ${
+              formatDuration((s.totalSteps - s.step) / s.stepsPerSecond)
+            }`
+            : ""),
+      );
       const worst = Math.max(...s.diagnostics.map((d) => d.rhat).filter((x) => Number.isFinite(x)));
-      say(`R-hat max ${Number.isFinite(worst) ? worst.toFixed(3) : "n/a"}; ${s.converged ? "criteria met (never a proof of convergence)" : "not converged by the criteria"}`);
+      say(
+        `R-hat max ${Number.isFinite(worst) ? worst.toFixed(3) : "n/a"}; ${
+          s.converged
+            ? "criteria met (never a proof of convergence)"
+            : "not converged by the criteria"
+        }`,
+      );
       return 0;
     }
     const { runDashboard } = await import("../../tui/mod.ts");

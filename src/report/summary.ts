@@ -23,6 +23,10 @@ export interface Summary {
   readonly burn: number;
   /** How the burn-in was chosen. */
   readonly burnRule: "auto" | "given";
+  /** Every `thin`-th sampler step is stored. */
+  readonly thin: number;
+  /** Posterior draws used (stored rows after burn-in × walkers). */
+  readonly draws: number;
   /** Convergence thresholds used. */
   readonly thresholds: {
     readonly rhat: number;
@@ -48,7 +52,11 @@ export interface Summary {
   >;
 }
 
-/** Summarise a chain read in full (all steps from 0). `burn` overrides the automatic choice. */
+/**
+ * Summarise a chain read in full (all stored rows from 0). `burn` (in sampler
+ * steps) overrides the automatic choice. Steps, burn-in and τ are reported in
+ * sampler steps: stored row k is step (k + 1)·thin.
+ */
 export function summarise(
   manifest: Manifest,
   chain: ChainData,
@@ -65,8 +73,9 @@ export function summarise(
   const names = manifest.parameters.map((p) => p.key);
   let burn: number;
   let burnRule: Summary["burnRule"];
+  const thin = manifest.thin ?? 1;
   if (options.burn !== undefined) {
-    burn = Math.min(options.burn, Math.max(0, chain.steps - 1));
+    burn = Math.min(Math.ceil(options.burn / thin), Math.max(0, chain.steps - 1));
     burnRule = "given";
   } else {
     burn = chain.steps < 4 ? 0 : chooseBurnIn(view, { columns, logPosteriorColumn: 0 }).burn;
@@ -96,16 +105,18 @@ export function summarise(
       rhat: c.rhat,
       ess_bulk: c.essBulk,
       ess_tail: c.essTail,
-      tau: c.tau,
+      tau: c.tau * thin,
       mcse_mean: c.mcseMean,
     };
   }
   return {
     title: manifest.spec.title,
-    steps: chain.steps,
+    steps: chain.steps * thin,
     walkers: chain.walkers,
-    burn,
+    burn: burn * thin,
     burnRule,
+    thin,
+    draws: kept * chain.walkers,
     thresholds,
     parameters,
     derived,
@@ -113,7 +124,7 @@ export function summarise(
       rhat_max: report?.maxRhat ?? NaN,
       ess_bulk_min: report?.minEssBulk ?? NaN,
       ess_tail_min: report?.minEssTail ?? NaN,
-      tau_max: report?.maxTau ?? NaN,
+      tau_max: (report?.maxTau ?? NaN) * thin,
       steps_per_tau_min: report?.minStepsPerTau ?? NaN,
       acceptance_mean: accMean,
       stuck_walkers: findStuckWalkers(acc),

@@ -17,7 +17,7 @@ export function summaryText(
   lines.push(
     `${s.steps} steps × ${s.walkers} walkers; burn-in ${s.burn} steps (${
       s.burnRule === "auto" ? "chosen automatically; override with --burn N" : "given"
-    }); ${(s.steps - s.burn) * s.walkers} draws`,
+    }); ${s.draws} draws${s.thin > 1 ? ` (every ${s.thin}th step stored)` : ""}`,
   );
   const truth = options.truth;
   const rows: string[][] = [[

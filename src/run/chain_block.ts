@@ -67,6 +67,61 @@ export interface BlockScan {
   readonly detail?: string;
 }
 
+/** What {@link checkBlockHeader} found: a usable header and its block's size, or why not. */
+export type HeaderCheck =
+  | { readonly ok: true; readonly header: BlockHeader; readonly size: number }
+  | { readonly ok: false; readonly stop: "torn" | "corrupt"; readonly detail: string };
+
+/**
+ * Check the block header at `offset` of `bytes` (magic, header CRC, version,
+ * shape, step sequence) without reading its payload. `byteLabel` is the
+ * header's position as reported in messages (default `offset`).
+ */
+export function checkBlockHeader(
+  bytes: Uint8Array,
+  offset: number,
+  expect: { walkers: number; columns: number; firstStep: number; byteLabel?: number },
+): HeaderCheck {
+  const at = expect.byteLabel ?? offset;
+  if (bytes.length - offset < BLOCK_HEADER_BYTES) {
+    return { ok: false, stop: "torn", detail: `partial header at byte ${at}` };
+  }
+  const dv = new DataView(bytes.buffer, bytes.byteOffset + offset, BLOCK_HEADER_BYTES);
+  const magic = dv.getUint32(0, true);
+  const hcrc = dv.getUint32(28, true);
+  if (magic !== BLOCK_MAGIC || crc32(bytes, { start: offset, end: offset + 28 }) !== hcrc) {
+    return { ok: false, stop: "corrupt", detail: `bad block header at byte ${at}` };
+  }
+  const version = dv.getUint32(4, true);
+  if (version !== BLOCK_VERSION) {
+    return { ok: false, stop: "corrupt", detail: `block version ${version} at byte ${at}` };
+  }
+  const header: BlockHeader = {
+    firstStep: dv.getUint32(8, true),
+    steps: dv.getUint32(12, true),
+    walkers: dv.getUint32(16, true),
+    columns: dv.getUint32(20, true),
+  };
+  if (header.walkers !== expect.walkers || header.columns !== expect.columns) {
+    return {
+      ok: false,
+      stop: "corrupt",
+      detail:
+        `block at byte ${at} has walkers=${header.walkers}, columns=${header.columns}, expected walkers=${expect.walkers}, columns=${expect.columns}`,
+    };
+  }
+  if (header.firstStep !== expect.firstStep) {
+    return {
+      ok: false,
+      stop: "corrupt",
+      detail:
+        `block at byte ${at} starts at step ${header.firstStep}, expected ${expect.firstStep}`,
+    };
+  }
+  const size = BLOCK_HEADER_BYTES + 8 * header.steps * header.walkers * header.columns;
+  return { ok: true, header, size };
+}
+
 /**
  * Scan `bytes` for consecutive valid blocks starting at offset 0. Never
  * throws on bad bytes: it reports where valid data ends and why.
@@ -81,51 +136,13 @@ export function scanBlocks(
   let off = 0;
   let nextStep = expect.firstStep ?? 0;
   while (off < bytes.length) {
-    if (bytes.length - off < BLOCK_HEADER_BYTES) {
-      return { blocks, validBytes: off, stop: "torn", detail: `partial header at byte ${off}` };
-    }
-    const magic = dv.getUint32(off, true);
-    const hcrc = dv.getUint32(off + 28, true);
-    if (magic !== BLOCK_MAGIC || crc32(bytes, { start: off, end: off + 28 }) !== hcrc) {
-      return {
-        blocks,
-        validBytes: off,
-        stop: "corrupt",
-        detail: `bad block header at byte ${off}`,
-      };
-    }
-    const header: BlockHeader = {
-      firstStep: dv.getUint32(off + 8, true),
-      steps: dv.getUint32(off + 12, true),
-      walkers: dv.getUint32(off + 16, true),
-      columns: dv.getUint32(off + 20, true),
-    };
-    const version = dv.getUint32(off + 4, true);
-    if (version !== BLOCK_VERSION) {
-      return {
-        blocks,
-        validBytes: off,
-        stop: "corrupt",
-        detail: `block version ${version} at byte ${off}`,
-      };
-    }
-    if (header.walkers !== expect.walkers || header.columns !== expect.columns) {
-      return {
-        blocks,
-        validBytes: off,
-        stop: "corrupt",
-        detail: `block at byte ${off} has walkers=${header.walkers}, columns=${header.columns}`,
-      };
-    }
-    if (header.firstStep !== nextStep) {
-      return {
-        blocks,
-        validBytes: off,
-        stop: "corrupt",
-        detail: `block at byte ${off} starts at step ${header.firstStep}, expected ${nextStep}`,
-      };
-    }
-    const size = BLOCK_HEADER_BYTES + 8 * header.steps * header.walkers * header.columns;
+    const check = checkBlockHeader(bytes, off, {
+      walkers: expect.walkers,
+      columns: expect.columns,
+      firstStep: nextStep,
+    });
+    if (!check.ok) return { blocks, validBytes: off, stop: check.stop, detail: check.detail };
+    const { header, size } = check;
     if (off + size > bytes.length) {
       return { blocks, validBytes: off, stop: "torn", detail: `block at byte ${off} is cut short` };
     }

@@ -3,7 +3,14 @@
  * Readers never write and stop quietly at a torn last block.
  * @module
  */
-import { BLOCK_HEADER_BYTES, type BlockHeader, encodeBlock, scanBlocks } from "./chain_block.ts";
+import { InputError } from "../errors.ts";
+import {
+  BLOCK_HEADER_BYTES,
+  type BlockHeader,
+  checkBlockHeader,
+  encodeBlock,
+  scanBlocks,
+} from "./chain_block.ts";
 import { runPath } from "./layout.ts";
 
 /** Samples as `[step][walker][column]`, value = data[(s·walkers + w)·columns + c]. */
@@ -71,6 +78,7 @@ export async function readChain(
   const { walkers, columns } = shape;
   const rowLen = walkers * columns;
   let file: Deno.FsFile;
+  let fileSize: number;
   try {
     file = await Deno.open(path, { read: true });
   } catch (err) {
@@ -84,7 +92,7 @@ export async function readChain(
         validBytes: 0,
       };
     }
-    throw err;
+    throw new InputError(`cannot read chain file: ${firstLine(err)}`, { file: path });
   }
   const chunks: Float64Array[] = [];
   let kept = 0;
@@ -93,36 +101,45 @@ export async function readChain(
   let stop: ChainRead["stop"] = "end";
   let detail: string | undefined;
   try {
+    try {
+      const info = await file.stat();
+      if (!info.isFile) throw new Error("not a regular file");
+      fileSize = info.size;
+    } catch (err) {
+      throw new InputError(`cannot read chain file: ${firstLine(err)}`, { file: path });
+    }
     const head = new Uint8Array(BLOCK_HEADER_BYTES);
     while (true) {
       const got = await readFull(file, head);
       if (got === 0) break;
-      if (got < BLOCK_HEADER_BYTES) {
+      const check = checkBlockHeader(head.subarray(0, got), 0, {
+        walkers,
+        columns,
+        firstStep: step,
+        byteLabel: off,
+      });
+      if (!check.ok) {
+        stop = check.stop;
+        detail = check.detail;
+        break;
+      }
+      // The header is valid, so its size is what the writer meant; a block past
+      // the end of the file is a write cut short. Nothing is allocated for it.
+      if (off + check.size > fileSize) {
         stop = "torn";
-        detail = `partial header at byte ${off}`;
+        detail = `block at byte ${off} is cut short: needs ${check.size} bytes, ${
+          fileSize - off
+        } on disk`;
         break;
       }
-      const dv = new DataView(head.buffer);
-      const steps = dv.getUint32(12, true);
-      const payloadBytes = 8 * steps * dv.getUint32(16, true) * dv.getUint32(20, true);
-      if (payloadBytes > 1 << 30) {
-        stop = "corrupt";
-        detail = `implausible block size at byte ${off}`;
-        break;
-      }
-      const whole = new Uint8Array(BLOCK_HEADER_BYTES + payloadBytes);
+      const { steps } = check.header;
+      const payloadBytes = check.size - BLOCK_HEADER_BYTES;
+      const whole = new Uint8Array(check.size);
       whole.set(head);
       const n = await readFull(file, whole.subarray(BLOCK_HEADER_BYTES));
       if (n < payloadBytes) {
-        // Validate the header first: a bad header is corruption, a good one cut short is torn.
-        const scan = scanBlocks(whole.subarray(0, BLOCK_HEADER_BYTES + n), {
-          walkers,
-          columns,
-          firstStep: step,
-        });
-        stop = scan.stop === "corrupt" ? "corrupt" : "torn";
-        detail = scan.detail?.replace(/byte \d+/, `byte ${off}`) ??
-          `block at byte ${off} is cut short`;
+        stop = "torn";
+        detail = `block at byte ${off} is cut short`;
         break;
       }
       const scan = scanBlocks(whole, { walkers, columns, firstStep: step });
@@ -166,4 +183,8 @@ async function readFull(f: Deno.FsFile, buf: Uint8Array): Promise<number> {
     off += n;
   }
   return off;
+}
+
+function firstLine(err: unknown): string {
+  return String((err as Error)?.message ?? err).split("\n")[0]!;
 }

@@ -47,41 +47,74 @@ export interface LoadedCheckpoint {
   readonly reason?: string;
 }
 
-/** Load the newest valid checkpoint; fall back to the previous one if needed. */
+/**
+ * Load the newest valid checkpoint; fall back to the previous one if the newest
+ * is missing, damaged, or needs more chain than the chain file holds. Throws
+ * {@link InputError} naming both files when neither can be used.
+ */
 export async function loadCheckpoint(dir: string): Promise<LoadedCheckpoint> {
-  const first = await tryRead(runPath(dir, "checkpoint"));
+  const chainSize = await fileSize(runPath(dir, "chain"));
+  const first = await tryRead(runPath(dir, "checkpoint"), chainSize);
   if (first.ok) return { checkpoint: first.value, usedFallback: false };
-  const second = await tryRead(runPath(dir, "checkpointPrev"));
+  const second = await tryRead(runPath(dir, "checkpointPrev"), chainSize);
   if (second.ok) return { checkpoint: second.value, usedFallback: true, reason: first.reason };
   throw new InputError(
-    `no usable checkpoint: ${first.reason}; previous: ${second.reason}`,
+    `found no usable checkpoint (${first.reason}; ${second.reason}): expected a valid checkpoint.json or checkpoint.prev.json; the chain can still be summarised`,
     { file: runPath(dir, "checkpoint") },
   );
 }
 
 type Read = { ok: true; value: Checkpoint } | { ok: false; reason: string };
 
-async function tryRead(path: string): Promise<Read> {
+async function fileSize(path: string): Promise<number> {
+  try {
+    return (await Deno.stat(path)).size;
+  } catch {
+    return 0;
+  }
+}
+
+async function tryRead(path: string, chainSize: number): Promise<Read> {
+  const name = path.slice(path.lastIndexOf("/") + 1);
   let text: string;
   try {
-    text = await Deno.readTextFile(path);
+    text = new TextDecoder("utf-8", { fatal: true }).decode(await Deno.readFile(path));
   } catch (err) {
-    if (err instanceof Deno.errors.NotFound) return { ok: false, reason: `${path} is missing` };
-    return { ok: false, reason: `${path}: ${(err as Error).message}` };
+    if (err instanceof Deno.errors.NotFound) return { ok: false, reason: `${name} is missing` };
+    if (err instanceof TypeError) return { ok: false, reason: `${name} is not UTF-8 text` };
+    return { ok: false, reason: `${name}: ${String((err as Error).message).split("\n")[0]}` };
   }
+  let outer: unknown;
   try {
-    const outer = JSON.parse(text) as { crc32: number; body: string };
-    if (
-      typeof outer.body !== "string" || crc32(new TextEncoder().encode(outer.body)) !== outer.crc32
-    ) {
-      return { ok: false, reason: `${path} fails its checksum` };
-    }
-    const cp = JSON.parse(outer.body) as Checkpoint;
-    if (!Number.isInteger(cp.step) || !Number.isInteger(cp.chainBytes) || cp.state === undefined) {
-      return { ok: false, reason: `${path} lacks step, chainBytes or state` };
-    }
-    return { ok: true, value: cp };
+    outer = JSON.parse(text);
   } catch {
-    return { ok: false, reason: `${path} is not valid JSON` };
+    return { ok: false, reason: `${name} is not valid JSON (truncated or overwritten?)` };
   }
+  const o = outer as { crc32?: unknown; body?: unknown } | null;
+  if (typeof o !== "object" || o === null || typeof o.body !== "string") {
+    return { ok: false, reason: `${name} lacks its body` };
+  }
+  if (crc32(new TextEncoder().encode(o.body)) !== o.crc32) {
+    return { ok: false, reason: `${name} fails its checksum` };
+  }
+  let cp: Checkpoint;
+  try {
+    cp = JSON.parse(o.body) as Checkpoint;
+  } catch {
+    return { ok: false, reason: `${name} body is not valid JSON` };
+  }
+  if (
+    typeof cp !== "object" || cp === null || !Number.isInteger(cp.step) || cp.step < 0 ||
+    !Number.isInteger(cp.chainBytes) || cp.chainBytes < 0 ||
+    typeof cp.state !== "object" || cp.state === null
+  ) {
+    return { ok: false, reason: `${name} lacks step, chainBytes or state` };
+  }
+  if (cp.chainBytes > chainSize) {
+    return {
+      ok: false,
+      reason: `${name} needs ${cp.chainBytes} bytes of chain but chain.bin holds ${chainSize}`,
+    };
+  }
+  return { ok: true, value: cp };
 }

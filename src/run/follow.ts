@@ -86,7 +86,8 @@ export class ChainFollower {
           // A block larger than the chunk: read it whole.
           if (scan.stop === "torn" && got === CHUNK_BYTES) {
             const dv = new DataView(buf.buffer);
-            const need = BLOCK_HEADER_BYTES + 8 * dv.getUint32(12, true) * this.walkers * this.columns;
+            const need = BLOCK_HEADER_BYTES +
+              8 * dv.getUint32(12, true) * this.walkers * this.columns;
             if (need > got && this.#offset + need <= size) {
               const whole = new Uint8Array(need);
               await f.seek(this.#offset, Deno.SeekMode.Start);
@@ -96,7 +97,14 @@ export class ChainFollower {
                 if (n === null) break;
                 g += n;
               }
-              added += this.#ingest(whole, scanBlocks(whole, { walkers: this.walkers, columns: this.columns, firstStep: this.#steps }));
+              added += this.#ingest(
+                whole,
+                scanBlocks(whole, {
+                  walkers: this.walkers,
+                  columns: this.columns,
+                  firstStep: this.#steps,
+                }),
+              );
               continue;
             }
           }
@@ -121,10 +129,15 @@ export class ChainFollower {
     for (const b of scan.blocks) {
       const n = b.header.steps * this.walkers * this.columns;
       const start = buf.byteOffset + b.offset + BLOCK_HEADER_BYTES;
-      const data = start % 8 === 0
-        ? new Float64Array(buf.buffer, start, n)
-        : new Float64Array(buf.slice(b.offset + BLOCK_HEADER_BYTES, b.offset + BLOCK_HEADER_BYTES + 8 * n).buffer);
-      this.#stream.push({ data, steps: b.header.steps, walkers: this.walkers, columns: this.columns });
+      const data = start % 8 === 0 ? new Float64Array(buf.buffer, start, n) : new Float64Array(
+        buf.slice(b.offset + BLOCK_HEADER_BYTES, b.offset + BLOCK_HEADER_BYTES + 8 * n).buffer,
+      );
+      this.#stream.push({
+        data,
+        steps: b.header.steps,
+        walkers: this.walkers,
+        columns: this.columns,
+      });
       this.#steps += b.header.steps;
       added += b.header.steps;
     }

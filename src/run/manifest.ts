@@ -38,6 +38,8 @@ export interface Manifest {
   readonly columns: readonly string[];
   readonly walkers: number;
   readonly seed: number;
+  /** Stored row k of the chain is sampler step (k + 1)·thin (absent in old runs: 1). */
+  readonly thin?: number;
   readonly moves: ModelSpec["sampler"]["moves"];
   /** For merged runs: the source runs, each contributing `walkers` chains. */
   readonly sources?: readonly {

@@ -22,7 +22,9 @@ export function mergeConflict(a: Manifest, b: Manifest): string | undefined {
   if (a.dataHash !== b.dataHash) {
     const na = a.data.time.length;
     const nb = b.data.time.length;
-    return na !== nb ? `data differ: ${na} vs ${nb} RVs` : "data differ (same number of RVs, different values)";
+    return na !== nb
+      ? `data differ: ${na} vs ${nb} RVs`
+      : "data differ (same number of RVs, different values)";
   }
   if (a.modelHash !== b.modelHash) {
     const sa = a.spec;
@@ -34,13 +36,21 @@ export function mergeConflict(a: Manifest, b: Manifest): string | undefined {
       const x = sa.planets[i]! as unknown as Record<string, unknown>;
       const y = sb.planets[i]! as unknown as Record<string, unknown>;
       for (const k of Object.keys({ ...x, ...y })) {
-        if (JSON.stringify(x[k]) !== JSON.stringify(y[k])) return `planet ${sa.planets[i]!.name}: ${k} differs`;
+        if (JSON.stringify(x[k]) !== JSON.stringify(y[k])) {
+          return `planet ${sa.planets[i]!.name}: ${k} differs`;
+        }
       }
     }
-    const ia = JSON.stringify(sa.instruments.map(({ name, offset, jitter }) => ({ name, offset, jitter })));
-    const ib = JSON.stringify(sb.instruments.map(({ name, offset, jitter }) => ({ name, offset, jitter })));
+    const ia = JSON.stringify(
+      sa.instruments.map(({ name, offset, jitter }) => ({ name, offset, jitter })),
+    );
+    const ib = JSON.stringify(
+      sb.instruments.map(({ name, offset, jitter }) => ({ name, offset, jitter })),
+    );
     if (ia !== ib) return "instruments or their priors differ";
-    if (JSON.stringify(sa.trend ?? null) !== JSON.stringify(sb.trend ?? null)) return "trend differs";
+    if (JSON.stringify(sa.trend ?? null) !== JSON.stringify(sb.trend ?? null)) {
+      return "trend differs";
+    }
     if (JSON.stringify(sa.star) !== JSON.stringify(sb.star)) return "star priors differ";
     return "model differs";
   }
@@ -53,32 +63,49 @@ export function mergeConflict(a: Manifest, b: Manifest): string | undefined {
  * source so the merged chain is rectangular (said in `notes`).
  */
 export async function mergeRuns(dirs: readonly string[], out: string): Promise<MergeResult> {
-  if (dirs.length < 1) throw new InputError("nothing to merge: expected run directories", { field: "arguments" });
+  if (dirs.length < 1) {
+    throw new InputError("nothing to merge: expected run directories", { field: "arguments" });
+  }
   const manifests: Manifest[] = [];
   for (const d of dirs) manifests.push(await readManifest(d));
   const first = manifests[0]!;
   manifests.forEach((m, i) => {
     const c = mergeConflict(first, m);
     if (c !== undefined) {
-      throw new InputError(`cannot merge ${dirs[i]} with ${dirs[0]}: ${c}`, { file: dirs[i], field: "manifest" });
+      throw new InputError(`cannot merge ${dirs[i]} with ${dirs[0]}: ${c}`, {
+        file: dirs[i],
+        field: "manifest",
+      });
     }
   });
   const chains: ChainData[] = [];
   for (let i = 0; i < dirs.length; i++) {
-    const r = await readChain(dirs[i]!, { walkers: manifests[i]!.walkers, columns: first.columns.length });
+    const r = await readChain(dirs[i]!, {
+      walkers: manifests[i]!.walkers,
+      columns: first.columns.length,
+    });
     chains.push(r.chain);
   }
   const steps = Math.min(...chains.map((c) => c.steps));
   const notes: string[] = [];
   chains.forEach((c, i) => {
-    if (c.steps > steps) notes.push(`${dirs[i]}: using the first ${steps} of ${c.steps} steps (shortest source)`);
+    if (c.steps > steps) {
+      notes.push(`${dirs[i]}: using the first ${steps} of ${c.steps} steps (shortest source)`);
+    }
   });
   if (steps === 0) throw new InputError("a source run has no steps yet", { field: "arguments" });
   try {
     const info = await Deno.stat(out);
-    if (!info.isDirectory) throw new InputError("output path is a file", { file: out, field: "--out" });
+    if (!info.isDirectory) {
+      throw new InputError("output path is a file", { file: out, field: "--out" });
+    }
     for await (const e of Deno.readDir(out)) {
-      if (e.name === "manifest.json") throw new InputError("already holds a run: choose another --out", { file: out, field: "--out" });
+      if (e.name === "manifest.json") {
+        throw new InputError("already holds a run: choose another --out", {
+          file: out,
+          field: "--out",
+        });
+      }
     }
   } catch (err) {
     if (err instanceof InputError) throw err;
@@ -90,7 +117,11 @@ export async function mergeRuns(dirs: readonly string[], out: string): Promise<M
     ...first,
     createdAt: new Date().toISOString(),
     walkers,
-    sources: dirs.map((d, i) => ({ dir: d, walkers: manifests[i]!.walkers, seed: manifests[i]!.seed })),
+    sources: dirs.map((d, i) => ({
+      dir: d,
+      walkers: manifests[i]!.walkers,
+      seed: manifests[i]!.seed,
+    })),
   };
   await writeManifest(out, merged);
   const chunk = Math.max(1, Math.floor((8 << 20) / (8 * walkers * C)));

@@ -68,7 +68,7 @@ const MODEL_URL = new URL("../model/posterior.ts", import.meta.url).href;
 export async function startRun(
   dir: string,
   problem: Problem,
-  options: SessionOptions & { steps: number; walkers: number; seed: number },
+  options: SessionOptions & { steps: number; walkers: number; seed: number; thin?: number },
 ): Promise<SessionResult> {
   await prepareDir(dir);
   const lock = await acquireLock(dir);
@@ -80,6 +80,7 @@ export async function startRun(
         steps: options.steps,
         walkers: options.walkers,
         seed: options.seed,
+        thin: options.thin ?? problem.spec.sampler.thin,
       },
     };
     const payload: ModelPayload = { spec, data: problem.data };
@@ -120,6 +121,7 @@ export async function startRun(
       columns: [...LEADING_COLUMNS, ...model.keys],
       walkers: options.walkers,
       seed: options.seed,
+      thin: spec.sampler.thin,
       moves: spec.sampler.moves,
     };
     await writeManifest(dir, manifest);
@@ -131,38 +133,48 @@ export async function startRun(
       stepsPerSecond: NaN,
       startedAt: new Date().toISOString(),
     });
-    const evaluator = await createEvaluator(
-      { moduleUrl: MODEL_URL, exportName: "createLogPosterior", payload },
-      { threads: options.threads, dimensions: dims },
-    );
-    try {
-      const state = await initEnsemble(model.startInternal(), {
-        walkers: options.walkers,
-        seed: options.seed,
-        scale: model.ballScales(),
-        evaluator,
-      });
-      await saveCheckpoint(dir, {
-        step: 0,
-        chainBytes: 0,
-        targetSteps: options.steps,
-        savedAt: new Date().toISOString(),
-        state: serializeState(state),
-      });
-      return await loop(dir, {
-        model,
-        manifest,
-        state,
-        evaluator,
-        target: options.steps,
-        moves: spec.sampler.moves,
-        flushedBytes: 0,
-      }, options);
-    } finally {
-      await evaluator.close();
-    }
+    return await sampleFromStart(dir, { model, manifest, payload, target: options.steps }, options);
   } finally {
     await lock.release();
+  }
+}
+
+/** Initialise the ensemble from the spec's start point, checkpoint step 0, and sample. */
+async function sampleFromStart(
+  dir: string,
+  input: { model: CompiledModel; manifest: Manifest; payload: ModelPayload; target: number },
+  options: SessionOptions,
+): Promise<SessionResult> {
+  const { model, manifest, payload, target } = input;
+  const evaluator = await createEvaluator(
+    { moduleUrl: MODEL_URL, exportName: "createLogPosterior", payload },
+    { threads: options.threads, dimensions: model.dimensions },
+  );
+  try {
+    const state = await initEnsemble(model.startInternal(), {
+      walkers: manifest.walkers,
+      seed: manifest.seed,
+      scale: model.ballScales(),
+      evaluator,
+    });
+    await saveCheckpoint(dir, {
+      step: 0,
+      chainBytes: 0,
+      targetSteps: target,
+      savedAt: new Date().toISOString(),
+      state: serializeState(state),
+    });
+    return await loop(dir, {
+      model,
+      manifest,
+      state,
+      evaluator,
+      target,
+      moves: manifest.moves,
+      flushedBytes: 0,
+    }, options);
+  } finally {
+    await evaluator.close();
   }
 }
 
@@ -175,13 +187,23 @@ export async function resumeRun(
   const lock: RunLock = await acquireLock(dir);
   const notes: string[] = [];
   try {
+    const payload: ModelPayload = { spec: manifest.spec, data: typedData(manifest.data) };
+    if (await neverCheckpointed(dir)) {
+      // Killed after writing the manifest but before the first checkpoint:
+      // start again from the spec's start point (deterministic for the seed).
+      notes.push("no checkpoint yet (stopped during start-up); starting from the beginning");
+      await truncateChain(dir, 0);
+      const model = new CompiledModel(payload);
+      const target = options.addSteps ?? options.steps ?? manifest.spec.sampler.steps;
+      const r = await sampleFromStart(dir, { model, manifest, payload, target }, options);
+      return { ...r, notes };
+    }
     const loaded = await loadCheckpoint(dir);
     if (loaded.usedFallback) {
       notes.push(`newest checkpoint unusable (${loaded.reason}); resumed from the previous one`);
     }
     const cp = loaded.checkpoint;
     await truncateChain(dir, cp.chainBytes);
-    const payload: ModelPayload = { spec: manifest.spec, data: typedData(manifest.data) };
     const model = new CompiledModel(payload);
     const state = deserializeState(cp.state as Parameters<typeof deserializeState>[0]);
     if (state.step !== cp.step) {
@@ -247,7 +269,9 @@ async function loop(
   const flushMs = 1000 * (options.flushSeconds ?? input.manifest.spec.sampler.flushSeconds);
   let block = new Float64Array(Math.min(flushSteps, 64) * W * columns);
   let blockSteps = 0;
-  let blockFirst = state.step;
+  const thin = input.manifest.thin ?? 1;
+  let blockFirst = Math.floor(state.step / thin);
+  let flushedStep = state.step;
   let chainBytes = input.flushedBytes;
   let lastFlush = performance.now();
   const startedAt = new Date().toISOString();
@@ -281,7 +305,8 @@ async function loop(
       savedAt: new Date().toISOString(),
       state: serializeState(state),
     });
-    blockFirst = state.step;
+    blockFirst = Math.floor(state.step / thin);
+    flushedStep = state.step;
     blockSteps = 0;
     lastFlush = performance.now();
   };
@@ -302,28 +327,34 @@ async function loop(
     while (state.step < target && !stopRequested) {
       const r = await ensembleStep(state, { evaluator, moves });
       state = r.state;
+      for (let w = 0; w < W; w++) {
+        const a = r.info.acceptedThisStep[w]!;
+        accSum += a;
+        accCount++;
+      }
+      // Rows are stored for sampler steps thin, 2·thin, … (absolute, so resumes agree).
+      const store = state.step % thin === 0;
       const need = (blockSteps + 1) * W * columns;
-      if (need > block.length) {
+      if (store && need > block.length) {
         const bigger = new Float64Array(Math.min(flushSteps, 2 * (blockSteps + 1)) * W * columns);
         bigger.set(block.subarray(0, blockSteps * W * columns));
         block = bigger;
       }
       let o = blockSteps * W * columns;
-      for (let w = 0; w < W; w++) {
+      for (let w = 0; w < W && store; w++) {
         for (let d = 0; d < D; d++) theta[d] = state.positions[w * D + d]!;
         model.toPhysical(theta, phys);
         block[o++] = state.logProb[w]!;
-        const a = r.info.acceptedThisStep[w]!;
-        block[o++] = a;
-        accSum += a;
-        accCount++;
+        block[o++] = r.info.acceptedThisStep[w]!;
         for (let d = 0; d < D; d++) block[o++] = phys[d]!;
       }
-      blockSteps++;
+      if (store) blockSteps++;
       const now = performance.now();
       times.push(now);
       if (times.length > 200) times.shift();
-      if (blockSteps >= flushSteps || now - lastFlush >= flushMs || state.step >= target) {
+      if (
+        store && (blockSteps >= flushSteps || now - lastFlush >= flushMs || state.step >= target)
+      ) {
         await flush();
         await status("running");
         if (options.shouldStop !== undefined && await options.shouldStop(state.step)) break;
@@ -333,7 +364,7 @@ async function loop(
         targetSteps: target,
         stepsPerSecond: rate(),
         acceptance: accCount === 0 ? NaN : accSum / accCount,
-        flushedStep: blockFirst,
+        flushedStep,
       });
     }
     await flush();
@@ -348,7 +379,7 @@ async function loop(
     } catch {
       // disk may be full; the checkpoint on disk is still the last good one
     }
-    return { state: "failed", step: blockFirst, message };
+    return { state: "failed", step: flushedStep, message };
   } finally {
     if (handle) {
       Deno.removeSignalListener("SIGINT", onSignal);
@@ -423,4 +454,21 @@ export function typedData(d: Manifest["data"]): ProblemData {
     instrument: Int32Array.from(d.instrument),
     count: d.time.length,
   };
+}
+
+async function neverCheckpointed(dir: string): Promise<boolean> {
+  for (const f of ["checkpoint", "checkpointPrev"] as const) {
+    try {
+      await Deno.stat(runPath(dir, f));
+      return false;
+    } catch {
+      // missing
+    }
+  }
+  try {
+    await Deno.stat(`${runPath(dir, "checkpoint")}.staged`);
+    return false;
+  } catch {
+    return true;
+  }
 }

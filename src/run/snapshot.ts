@@ -43,6 +43,7 @@ export class RunWatcher {
     const thresholds = m.spec.sampler.thresholds;
     const W = m.walkers;
     const C = m.columns.length;
+    const storeThin = m.thin ?? 1;
     const enough = stream.keptSteps >= 8;
     const report = enough
       ? stream.report({ columns, names: keys, logPosteriorColumn: 0, thresholds })
@@ -70,7 +71,7 @@ export class RunWatcher {
     for (let s = 0; s < view.steps; s++) {
       let sum = 0;
       for (let w = 0; w < W; w++) sum += view.data[(s * W + w) * C]!;
-      traceSteps[s] = s * thin;
+      traceSteps[s] = (s * thin + 1) * storeThin;
       traceValues[s] = sum / W;
     }
     const derived = pick.length > 0 ? derivedDraws(m, subChain, { burn: 0 }) : new Map();
@@ -87,7 +88,9 @@ export class RunWatcher {
         msiniMearth: derived.get(`${p.name}.msini_mearth`)?.values ?? empty,
         aAu: derived.get(`${p.name}.a_au`)?.values ?? empty,
         eccentricity: col("eccentricity") ?? new Float64Array(pick.length * W).fill(fixedE),
-        lambdaDeg: p.rm ? col("lambda_deg") ?? fixedArray(p.rm.lambdaDeg.prior, pick.length * W) : undefined,
+        lambdaDeg: p.rm
+          ? col("lambda_deg") ?? fixedArray(p.rm.lambdaDeg.prior, pick.length * W)
+          : undefined,
         psiDeg: derived.get(`${p.name}.psi_deg`)?.values,
       };
     });
@@ -99,12 +102,12 @@ export class RunWatcher {
       dir: this.dir,
       title: m.spec.title,
       state,
-      step: follower.steps,
-      totalSteps: status?.targetSteps ?? follower.steps,
+      step: Math.max(status?.step ?? 0, follower.steps * storeThin),
+      totalSteps: status?.targetSteps ?? follower.steps * storeThin,
       walkers: W,
       threads: status?.threads ?? 0,
       stepsPerSecond: state === "running" ? status?.stepsPerSecond ?? NaN : NaN,
-      burn: report?.burn ?? 0,
+      burn: (report?.burn ?? 0) * storeThin,
       acceptance: follower.steps > 0 ? accMean : NaN,
       stuckWalkers: follower.steps > 20 ? findStuckWalkers(acc) : [],
       parameters: m.parameters.map((p) => ({ key: p.key, unit: p.unit })),
@@ -115,7 +118,7 @@ export class RunWatcher {
           rhat: c?.rhat ?? NaN,
           essBulk: c?.essBulk ?? NaN,
           essTail: c?.essTail ?? NaN,
-          tau: c?.tau ?? NaN,
+          tau: (c?.tau ?? NaN) * storeThin,
           stepsPerTau: c?.stepsPerTau ?? NaN,
         };
       }),

@@ -34,7 +34,11 @@ export function convergenceStopper(
       const m = await readManifest(dir);
       keys = m.parameters.map((p) => p.key);
       thresholds = m.spec.sampler.thresholds;
-      follower = new ChainFollower(dir, { walkers: m.walkers, columns: m.columns.length, capacity: 512 });
+      follower = new ChainFollower(dir, {
+        walkers: m.walkers,
+        columns: m.columns.length,
+        capacity: 512,
+      });
     }
     await follower.poll();
     if (follower.stream.keptSteps < 16) return false;

@@ -6,7 +6,6 @@
 import { parse as parseToml } from "smol-toml";
 import { InputError } from "../errors.ts";
 import type {
-  InstrumentSpec,
   ModelSpec,
   MoveSpec,
   ParamSpec,
@@ -232,6 +231,7 @@ function parseSampler(ctx: Ctx, t: Table): SamplerSpec {
     "steps",
     "seed",
     "threads",
+    "thin",
     "moves",
     "until_converged",
     "rhat_max",
@@ -281,6 +281,7 @@ function parseSampler(ctx: Ctx, t: Table): SamplerSpec {
     steps: int("steps", d.steps, 1),
     seed: int("seed", d.seed, 0),
     threads: t.threads === undefined ? undefined : int("threads", 1, 1),
+    thin: int("thin", 1, 1),
     moves,
     untilConverged: uc ?? d.untilConverged,
     thresholds: {

@@ -94,6 +94,8 @@ export interface SamplerSpec {
   readonly steps: number;
   readonly seed: number;
   readonly threads?: number;
+  /** Store every `thin`-th step in the chain file (the sampler still takes every step). */
+  readonly thin: number;
   readonly moves: readonly MoveSpec[];
   /** Stop early when converged (`--until-converged`). */
   readonly untilConverged: boolean;

@@ -52,7 +52,9 @@ function gauss(rng: () => number): number {
 export const MAIN = new URL("../../src/cli/main.ts", import.meta.url).pathname;
 
 /** Run the CLI in a child process; returns code and output. */
-export async function cli(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+export async function cli(
+  args: string[],
+): Promise<{ code: number; stdout: string; stderr: string }> {
   const out = await new Deno.Command(Deno.execPath(), {
     args: ["run", "-A", MAIN, ...args],
     stdout: "piped",

@@ -16,8 +16,10 @@ describe("run and resume", () => {
     const base = spec.replace(/spec\.toml$/, "");
     const straight = `${base}straight`;
     const split = `${base}split`;
-    expect((await cli(["run", spec, "--out", straight, "--steps", "300", "--threads", "1"])).code).toBe(0);
-    expect((await cli(["run", spec, "--out", split, "--steps", "120", "--threads", "2"])).code).toBe(0);
+    expect((await cli(["run", spec, "--out", straight, "--steps", "300", "--threads", "1"])).code)
+      .toBe(0);
+    expect((await cli(["run", spec, "--out", split, "--steps", "120", "--threads", "2"])).code)
+      .toBe(0);
     const r = await cli(["resume", split, "--steps", "300", "--threads", "1"]);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/finished at step 300/);
@@ -31,7 +33,19 @@ describe("run and resume", () => {
     const spec = await writeSmallProblem();
     const dir = spec.replace(/spec\.toml$/, "live");
     const child = new Deno.Command(Deno.execPath(), {
-      args: ["run", "-A", new URL("../../src/cli/main.ts", import.meta.url).pathname, "run", spec, "--out", dir, "--steps", "200000", "--threads", "1"],
+      args: [
+        "run",
+        "-A",
+        new URL("../../src/cli/main.ts", import.meta.url).pathname,
+        "run",
+        spec,
+        "--out",
+        dir,
+        "--steps",
+        "200000",
+        "--threads",
+        "1",
+      ],
       stdout: "null",
       stderr: "null",
     }).spawn();

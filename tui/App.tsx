@@ -16,8 +16,8 @@ export interface AppProps {
   readonly intervalMs?: number;
   /** Whether colour may be used; false under NO_COLOR. */
   readonly color: boolean;
-  /** Called once when the user leaves with `q`, before Ink exits. */
-  readonly onExit?: () => void;
+  /** Called once when the user leaves: `quit` for q, `interrupt` for Ctrl-C. */
+  readonly onExit?: (reason: "quit" | "interrupt") => void;
   /** Terminal width override (tests); default: the output stream's columns, following resizes. */
   readonly columns?: number;
   /** Terminal height override (tests); default: the output stream's rows, following resizes. */
@@ -92,9 +92,14 @@ export function App({ load, intervalMs = 1000, color, onExit, columns, rows }: A
   }, [load, intervalMs]);
 
   useInput((input, key) => {
+    if (key.ctrl && input === "c") {
+      onExit?.("interrupt");
+      exit();
+      return;
+    }
     for (const k of keysFromInput(input, key)) {
       if (k.kind === "quit") {
-        onExit?.();
+        onExit?.("quit");
         exit();
         return;
       }

@@ -59,20 +59,25 @@ export function noColorRequested(): boolean {
 export async function runDashboard(
   load: () => Promise<RunSnapshot>,
   options: RunDashboardOptions = {},
-): Promise<void> {
+): Promise<"quit" | "interrupt"> {
+  let reason: "quit" | "interrupt" = "quit";
   const color = options.color ?? !noColorRequested();
   const instance = render(
     createElement(App, {
       load,
       color,
+      onExit: (r: "quit" | "interrupt") => {
+        reason = r;
+      },
       ...(options.intervalMs ? { intervalMs: options.intervalMs } : {}),
     }),
     {
       alternateScreen: options.alternateScreen ?? true,
-      exitOnCtrlC: true,
+      exitOnCtrlC: false,
       ...(options.stdout ? { stdout: options.stdout } : {}),
       ...(options.stdin ? { stdin: options.stdin } : {}),
     },
   );
   await instance.waitUntilExit();
+  return reason;
 }

@@ -233,7 +233,15 @@ async function background(
     exited = true;
     return s;
   });
-  await runDashboard(() => watcher.load());
+  const reason = await runDashboard(() => watcher.load());
+  if (!exited && reason === "interrupt") {
+    // Ctrl-C: stop the run cleanly (it flushes and checkpoints on SIGINT).
+    say(`stopping the run (process ${child.pid}): flushing and checkpointing…`);
+    child.kill("SIGINT");
+    const s = await status;
+    say(`stopped (exit ${s.code}); continue: deno task rvwalk resume ${dir}`);
+    return s.code === 0 ? 0 : 1;
+  }
   if (!exited) {
     say(`the run goes on in process ${child.pid}; output in ${runPath(dir, "log")}`);
     say(`watch again: deno task rvwalk watch ${dir}   stop: kill -INT ${child.pid}`);

@@ -47,18 +47,6 @@ export interface ModelPayload {
   readonly data: ProblemData;
 }
 
-// Model quantities per planet, in slot order.
-const PLANET_Q = ["period", "epoch", "semi_amplitude", "eccentricity", "omega_deg"] as const;
-const RM_Q = [
-  "lambda_deg",
-  "vsini_kms",
-  "radius_ratio",
-  "a_over_rstar",
-  "impact",
-  "u1",
-  "u2",
-] as const;
-
 interface Slot {
   key: string;
   unit: string;

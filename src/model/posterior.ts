@@ -15,6 +15,7 @@ import {
   timeConjunctionFromPeriastron,
   timePeriastronFromConjunction,
 } from "./keplerian.ts";
+import { gaussianLogLikelihood } from "./likelihood.ts";
 import { logPriorDensity, priorQuantile } from "./priors.ts";
 import { addRmAnomaly, type RmParams } from "./rm.ts";
 
@@ -68,6 +69,7 @@ export class CompiledModel {
   #phys: Float64Array;
   #values: Float64Array;
   #model: Float64Array;
+  #jitter: Float64Array;
   #orbits: Orbit[];
   #rm: (RmParams | undefined)[];
   #slotsPerPlanet: number[];
@@ -156,6 +158,7 @@ export class CompiledModel {
     this.#phys = new Float64Array(params.length);
     this.#values = new Float64Array(slots.length);
     this.#model = new Float64Array(data.count);
+    this.#jitter = new Float64Array(spec.instruments.length);
     this.#orbits = spec.planets.map(() => ({
       period: 1,
       timePeriastron: 0,
@@ -358,20 +361,10 @@ export class CompiledModel {
   logLikelihood(phys: Float64Array): number {
     const m = this.#model;
     if (!this.predict(phys, m)) return -Infinity;
-    const d = this.data;
     const v = this.#values;
-    const ib = this.#instBase;
-    let chi = 0;
-    let logdet = 0;
-    for (let i = 0; i < d.count; i++) {
-      const s = v[ib + 2 * d.instrument[i]! + 1]!;
-      const e = d.rvErr[i]!;
-      const variance = e * e + s * s;
-      const r = d.rv[i]! - m[i]!;
-      chi += (r * r) / variance;
-      logdet += Math.log(variance);
-    }
-    return -0.5 * (chi + logdet + d.count * LOG_2PI);
+    const jitter = this.#jitter;
+    for (let k = 0; k < jitter.length; k++) jitter[k] = v[this.#instBase + 2 * k + 1]!;
+    return gaussianLogLikelihood(this.data, { model: m, jitter });
   }
 
   /** Log-posterior (up to the evidence) at an internal point. */
@@ -397,7 +390,6 @@ export function createLogPosterior(payload: ModelPayload): (theta: Float64Array)
   return (theta) => model.logPosterior(theta);
 }
 
-const LOG_2PI = Math.log(2 * Math.PI);
 const LOG_PAIR_JACOBIAN = Math.log(2) + Math.log(180 / Math.PI);
 
 function defaultStart(prior: PriorSpec): number {

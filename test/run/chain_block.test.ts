@@ -11,6 +11,26 @@ describe("crc32()", () => {
     expect(crc32(new TextEncoder().encode("123456789"))).toBe(0xcbf43926);
     expect(crc32(new Uint8Array(0))).toBe(0);
   });
+
+  test("crc32() equals a bit-by-bit CRC for every length and offset up to 40", () => {
+    // Independent reference: the defining shift register, one bit at a time, no tables.
+    const bitwise = (b: Uint8Array): number => {
+      let c = 0xffffffff;
+      for (const byte of b) {
+        c ^= byte;
+        for (let k = 0; k < 8; k++) c = (c >>> 1) ^ (0xedb88320 & -(c & 1));
+      }
+      return (c ^ 0xffffffff) >>> 0;
+    };
+    const bytes = Uint8Array.from({ length: 64 }, (_, i) => (i * 151 + 17) & 0xff);
+    for (let start = 0; start < 9; start++) {
+      for (let n = 0; n <= 40; n++) {
+        expect(crc32(bytes, { start, end: start + n })).toBe(
+          bitwise(bytes.subarray(start, start + n)),
+        );
+      }
+    }
+  });
 });
 
 describe("scanBlocks()", () => {

@@ -8,6 +8,7 @@ const BENCHES = [
   "./sampler_bench.ts",
   "./diagnostics_bench.ts",
   "./store_bench.ts",
+  "./watch_bench.ts",
 ];
 
 const only = Deno.args[0];

@@ -12,16 +12,43 @@ import { type Manifest, readManifest } from "./manifest.ts";
 import { readStatus } from "./status.ts";
 
 /** Most posterior draws per parameter handed to the screen. */
-const MAX_DRAWS = 16384;
+const MAX_DRAWS = 4096;
+/** Reservoir steps per walker kept for the screen's diagnostics. */
+const CAPACITY = 256;
+
+/** The part of a snapshot computed from the chain (diagnostics, draws, derived). */
+type Heavy = Pick<
+  RunSnapshot,
+  | "burn"
+  | "acceptance"
+  | "stuckWalkers"
+  | "parameters"
+  | "draws"
+  | "diagnostics"
+  | "logPosteriorTrace"
+  | "planets"
+  | "thresholds"
+  | "converged"
+>;
 
 /** Loads successive snapshots of one run directory. */
 export class RunWatcher {
   readonly dir: string;
   #manifest: Manifest | undefined;
   #follower: ChainFollower | undefined;
+  #heavy: Heavy | undefined;
+  #heavySteps = -1;
+  #heavyAt = -Infinity;
+  readonly #heavyEveryMs: number;
 
-  constructor(dir: string) {
+  /**
+   * `heavyEveryMs`: diagnostics, draws and derived quantities are recomputed
+   * at most this often (and only when new steps arrived); progress figures are
+   * fresh on every load. Keeps a watcher's CPU use small next to the sampler.
+   */
+  constructor(dir: string, options: { heavyEveryMs?: number } = {}) {
     this.dir = dir;
+    this.#heavyEveryMs = options.heavyEveryMs ?? 5000;
   }
 
   /** Read what is new and build a snapshot. Throws InputError if DIR is not a run. */
@@ -31,12 +58,41 @@ export class RunWatcher {
       this.#follower = new ChainFollower(this.dir, {
         walkers: this.#manifest.walkers,
         columns: this.#manifest.columns.length,
+        capacity: CAPACITY,
       });
     }
     const m = this.#manifest;
     const follower = this.#follower!;
     await follower.poll();
     const status = await readStatus(this.dir);
+    const now = performance.now();
+    if (
+      this.#heavy === undefined ||
+      (follower.steps !== this.#heavySteps && now - this.#heavyAt >= this.#heavyEveryMs)
+    ) {
+      this.#heavy = this.#computeHeavy(m, follower);
+      this.#heavySteps = follower.steps;
+      this.#heavyAt = performance.now();
+    }
+    const storeThin = m.thin ?? 1;
+    const state: RunState = status?.state ?? (follower.steps > 0 ? "stopped" : "starting");
+    return {
+      ...this.#heavy,
+      dir: this.dir,
+      title: m.spec.title,
+      state,
+      step: Math.max(status?.step ?? 0, follower.steps * storeThin),
+      totalSteps: status?.targetSteps ?? follower.steps * storeThin,
+      walkers: m.walkers,
+      threads: status?.threads ?? 0,
+      stepsPerSecond: state === "running" ? status?.stepsPerSecond ?? NaN : NaN,
+      message: follower.corruptDetail !== undefined
+        ? `chain damaged: ${follower.corruptDetail}`
+        : status?.message,
+    };
+  }
+
+  #computeHeavy(m: Manifest, follower: ChainFollower): Heavy {
     const stream = follower.stream;
     const keys = m.parameters.map((p) => p.key);
     const columns = keys.map((_, i) => 2 + i);
@@ -97,16 +153,7 @@ export class RunWatcher {
     const acc = stream.acceptance();
     let accMean = 0;
     for (const a of acc) accMean += a / Math.max(1, acc.length);
-    const state: RunState = status?.state ?? (follower.steps > 0 ? "stopped" : "starting");
     return {
-      dir: this.dir,
-      title: m.spec.title,
-      state,
-      step: Math.max(status?.step ?? 0, follower.steps * storeThin),
-      totalSteps: status?.targetSteps ?? follower.steps * storeThin,
-      walkers: W,
-      threads: status?.threads ?? 0,
-      stepsPerSecond: state === "running" ? status?.stepsPerSecond ?? NaN : NaN,
       burn: (report?.burn ?? 0) * storeThin,
       acceptance: follower.steps > 0 ? accMean : NaN,
       stuckWalkers: follower.steps > 20 ? findStuckWalkers(acc) : [],
@@ -126,9 +173,6 @@ export class RunWatcher {
       planets,
       thresholds,
       converged: report?.converged ?? false,
-      message: follower.corruptDetail !== undefined
-        ? `chain damaged: ${follower.corruptDetail}`
-        : status?.message,
     };
   }
 }

@@ -4,20 +4,10 @@
  * @module
  */
 
+import type { Prior } from "../model/priors.ts";
+
 /** A prior as written in the spec. `fixed` means the parameter is not sampled. */
-export type PriorSpec =
-  | { readonly kind: "uniform"; readonly lo: number; readonly hi: number }
-  | { readonly kind: "loguniform"; readonly lo: number; readonly hi: number }
-  | { readonly kind: "normal"; readonly mu: number; readonly sigma: number }
-  | {
-    readonly kind: "truncnormal";
-    readonly mu: number;
-    readonly sigma: number;
-    readonly lo: number;
-    readonly hi: number;
-  }
-  | { readonly kind: "beta"; readonly a: number; readonly b: number }
-  | { readonly kind: "fixed"; readonly value: number };
+export type PriorSpec = Prior;
 
 /** One model quantity: its prior and optional start value (centre of the walker ball). */
 export interface ParamSpec {

@@ -23,6 +23,8 @@ const normal = () => {
 
 export const TRUTH = {
   star: "Quellan-318 (invented)",
+  /** Used only for derived masses (no effect on the velocities). */
+  star_mass_msun: 0.87,
   seed: SEED,
   planets: [
     {

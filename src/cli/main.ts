@@ -8,7 +8,9 @@ import type { Command } from "./_common.ts";
 import { checkCommand } from "./check.ts";
 import { demoCommand } from "./demo.ts";
 import { exportCommand } from "./export.ts";
+import { initCommand } from "./init.ts";
 import { mergeCommand } from "./merge.ts";
+import { periodogramCommand } from "./periodogram.ts";
 import { plotCommand } from "./plot.ts";
 import { shardsCommand } from "./shards.ts";
 import { resumeCommand, runCommand } from "./run.ts";
@@ -17,6 +19,8 @@ import { watchCommand } from "./watch.ts";
 
 const COMMANDS: readonly Command[] = [
   demoCommand,
+  periodogramCommand,
+  initCommand,
   checkCommand,
   runCommand,
   resumeCommand,

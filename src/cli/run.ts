@@ -5,6 +5,7 @@ import { runPath } from "../run/layout.ts";
 import { resumeRun, type SessionResult, startRun } from "../run/session.ts";
 import { convergenceStopper } from "../run/stopper.ts";
 import { loadProblem } from "../spec/mod.ts";
+import { fillStartValues } from "../search/mod.ts";
 import { type Command, defaultThreads, intOption, parseOptions, say, warn } from "./_common.ts";
 import { describeProblem } from "./describe.ts";
 import { progressPrinter } from "./progress.ts";
@@ -50,9 +51,16 @@ PID) flushes the chain and checkpoints; continue with \`rvwalk resume DIR\`.`,
     if (values.out === undefined) {
       throw new InputError("missing: expected --out DIR", { field: "--out" });
     }
-    const problem = await loadProblem(positionals[0]!);
-    for (const n of problem.notes) say(`note: ${n}`);
-    for (const w of problem.warnings) warn(`warning: ${w}`);
+    const loaded = await loadProblem(positionals[0]!);
+    for (const n of loaded.notes) say(`note: ${n}`);
+    for (const w of loaded.warnings) warn(`warning: ${w}`);
+    // Free parameters without a start value: periodogram search + MAP fit first.
+    const filled = fillStartValues(loaded);
+    if (filled.filled.length > 0) {
+      say(`start values missing for ${filled.filled.join(", ")}: searching and optimising`);
+      for (const line of filled.report) say(`  ${line}`);
+    }
+    const problem = filled.problem;
     const s = problem.spec.sampler;
     const steps = intOption(values.steps, "steps", s.steps)!;
     const walkers = intOption(values.walkers, "walkers", s.walkers)!;

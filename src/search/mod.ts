@@ -2,7 +2,9 @@
  * Finding periodic signals in radial velocities before any MCMC: the
  * generalised Lomb–Scargle periodogram with per-instrument offsets, its
  * analytic false-alarm probability, the spectral window, an iterative
- * peak-fit-subtract search, a Nelder–Mead optimiser and a terminal plot.
+ * peak-fit-subtract search, a Nelder–Mead optimiser, a terminal plot, the
+ * maximum a posteriori fit of a compiled model with start values for specs
+ * that lack them, and the drafting and writing of specs as TOML.
  * All functions are pure (no I/O, clock, console or global RNG).
  *
  * @example
@@ -41,3 +43,22 @@ export {
 } from "./search_signals.ts";
 export { nelderMead, type NelderMeadOptions, type NelderMeadResult } from "./nelder_mead.ts";
 export { asciiPeriodogram, type AsciiPeriodogramOptions } from "./ascii_periodogram.ts";
+export {
+  type FilledStart,
+  type FillStartOptions,
+  fillStartValues,
+  mapFit,
+  type MapFitOptions,
+  type MapFitResult,
+} from "./map_fit.ts";
+export {
+  type DraftData,
+  type DraftInstrument,
+  type DraftPlanet,
+  type DraftSignal,
+  draftSpec,
+  type DraftSpecOptions,
+  type SpecDraft,
+  specToml,
+  withDraftStarts,
+} from "./spec_writer.ts";

@@ -94,16 +94,25 @@ export function derivedDraws(
           ? timePeriastronFromConjunction(epoch(row), orbit)
           : timeConjunctionFromPeriastron(epoch(row), orbit);
         if (incl && mtrue && impact && aR && lam) {
-          const inc = inclinationFromImpact(impact(row), aR(row), { eccentricity: e, argPeriastron: wr });
+          const inc = inclinationFromImpact(impact(row), aR(row), {
+            eccentricity: e,
+            argPeriastron: wr,
+          });
           incl[i] = (inc * 180) / Math.PI;
           mtrue[i] = trueMass({ period: P, semiAmplitude: k(row), eccentricity: e }, star[i]!, {
             inclination: inc,
           }) * SOLAR_TO_JUPITER_MASS;
           if (psi && radius && prot && vsini) {
             // Rotation gives only sin i★: i★ and π − i★ fit equally, so draw the branch too.
-            const i0 = starInclinationFromRotation(vsini(row), { rotationPeriod: prot[i]!, radius: radius[i]! });
+            const i0 = starInclinationFromRotation(vsini(row), {
+              rotationPeriod: prot[i]!,
+              radius: radius[i]!,
+            });
             const istar = rng() < 0.5 ? i0 : Math.PI - i0;
-            psi[i] = (obliquity((lam(row) * Math.PI) / 180, { starInclination: istar, orbitInclination: inc }) * 180) /
+            psi[i] = (obliquity((lam(row) * Math.PI) / 180, {
+              starInclination: istar,
+              orbitInclination: inc,
+            }) * 180) /
               Math.PI;
           }
         }

@@ -37,9 +37,7 @@ export function parseOptions<O extends Options>(
       strict: true,
     });
   } catch (err) {
-    throw new InputError(`${(err as Error).message.split("\n")[0]}; see --help`, {
-      field: "options",
-    });
+    throw optionError(err as Error, Object.keys(options));
   }
   const n = parsed.positionals.length;
   if (!parsed.values.help && (n < positionals.min || n > positionals.max)) {
@@ -49,6 +47,38 @@ export function parseOptions<O extends Options>(
     );
   }
   return { values: parsed.values as OptionValues<O>, positionals: parsed.positionals };
+}
+
+/** Turn a `node:util` parseArgs error into one located line. */
+function optionError(err: Error, names: string[]): InputError {
+  const msg = String(err.message);
+  const valid = [...names.map((n) => `--${n}`), "--help", "--debug"].join(", ");
+  const unknown = /^Unknown option '([^']+)'/.exec(msg);
+  if (unknown) {
+    return new InputError(`found unknown option \`${unknown[1]}\`: expected one of ${valid}`, {
+      field: unknown[1],
+    });
+  }
+  const ambiguous = /^Option '([^' ]+)[^']*' argument is ambiguous/.exec(msg);
+  if (ambiguous) {
+    return new InputError(
+      `found a value starting with "-": expected ${ambiguous[1]}=VALUE for such values, or a value`,
+      { field: ambiguous[1] },
+    );
+  }
+  const missing = /^Option '([^' ]+)[^']*' argument missing/.exec(msg);
+  if (missing) {
+    return new InputError("found no value: expected a value after the option", {
+      field: missing[1],
+    });
+  }
+  const boolValue = /^Option '([^' ]+)' does not take an argument/.exec(msg);
+  if (boolValue) {
+    return new InputError("found a value: expected the option alone (it is a switch)", {
+      field: boolValue[1],
+    });
+  }
+  return new InputError(`${msg.split("\n")[0]}; see --help`, { field: "options" });
 }
 
 /** A whole number option, or the default. */
@@ -65,6 +95,55 @@ export function intOption(
     });
   }
   return Number(v);
+}
+
+/**
+ * One line saying that a chain file ends early, or `undefined` when it was
+ * read to a clean end. Printed by the commands that read chains.
+ */
+export function chainNotice(
+  dir: string,
+  read: { stop: "end" | "torn" | "corrupt"; stepsOnDisk: number; detail?: string },
+): string | undefined {
+  if (read.stop === "end") return undefined;
+  const file = `${dir.replace(/\/+$/, "")}/chain.bin`;
+  return read.stop === "torn"
+    ? `note: ${file}: ends in an incomplete block (${read.detail}; a write cut short, or a run still writing): using the ${read.stepsOnDisk} complete steps before it`
+    : `warning: ${file}: damaged after step ${read.stepsOnDisk} (${read.detail}): using the ${read.stepsOnDisk} valid steps before it; the rest is ignored`;
+}
+
+/**
+ * Check an ensemble size against the free parameters. The affine-invariant
+ * ensemble needs more walkers than twice the dimensions and two equal halves
+ * (Goodman & Weare 2010, Commun. Appl. Math. Comput. Sci. 5, 65; the
+ * "more than 2 × dimensions" rule is common practice, no source).
+ * Throws {@link InputError} located at `where` (spec key or CLI option).
+ */
+export function checkWalkers(
+  walkers: number,
+  dimensions: number,
+  where: { file?: string; field: string },
+): void {
+  if (dimensions === 0) {
+    throw new InputError(
+      "found every parameter fixed: expected at least one parameter with a prior to sample",
+      { file: where.file, field: "parameters" },
+    );
+  }
+  if (walkers <= 2 * dimensions) {
+    throw new InputError(
+      `found walkers=${walkers} for ${dimensions} free parameters: expected more than 2 × ${dimensions} = ${
+        2 * dimensions
+      } (and even), e.g. ${2 * dimensions + 2}`,
+      where,
+    );
+  }
+  if (walkers % 2 !== 0) {
+    throw new InputError(
+      `found walkers=${walkers}: expected an even number (two equal halves), e.g. ${walkers + 1}`,
+      where,
+    );
+  }
 }
 
 /** Format seconds as `1h02m`, `3m05s`, `12s`. */

@@ -1,7 +1,7 @@
 /** `rvwalk check SPEC`. @module */
 import { CompiledModel } from "../model/posterior.ts";
 import { loadProblem } from "../spec/mod.ts";
-import { type Command, parseOptions, say, warn } from "./_common.ts";
+import { checkWalkers, type Command, parseOptions, say, warn } from "./_common.ts";
 import { describeProblem } from "./describe.ts";
 
 export const checkCommand: Command = {
@@ -20,6 +20,10 @@ then evaluates the log-posterior at the start point. Exit 0 when all is well,
     for (const n of problem.notes) say(`note: ${n}`);
     for (const w of problem.warnings) warn(`warning: ${w}`);
     const model = new CompiledModel({ spec: problem.spec, data: problem.data });
+    checkWalkers(problem.spec.sampler.walkers, model.dimensions, {
+      file: positionals[0]!,
+      field: "sampler.walkers",
+    });
     for (const line of describeProblem(problem, model)) say(line);
     const lp = model.logPosterior(model.startInternal());
     if (!Number.isFinite(lp)) {

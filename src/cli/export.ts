@@ -3,7 +3,7 @@ import { stringify } from "csv-stringify/sync";
 import { InputError } from "../errors.ts";
 import { readChain } from "../run/chain_file.ts";
 import { readManifest } from "../run/manifest.ts";
-import { type Command, intOption, parseOptions, say } from "./_common.ts";
+import { chainNotice, type Command, intOption, parseOptions, say, warn } from "./_common.ts";
 
 export const exportCommand: Command = {
   name: "export",
@@ -37,6 +37,8 @@ Use - as FILE for standard output.`,
       from,
       thin,
     });
+    const notice = chainNotice(dir, read);
+    if (notice !== undefined) warn(notice);
     const keys = m.parameters.map((p) => p.key);
     const out: (string | number)[][] = [["step", "walker", "log_posterior", ...keys]];
     const { data, walkers, columns } = read.chain;

@@ -5,6 +5,7 @@
  */
 import { InputError } from "../errors.ts";
 import type { Command } from "./_common.ts";
+import { calibrateCommand } from "./calibrate.ts";
 import { checkCommand } from "./check.ts";
 import { demoCommand } from "./demo.ts";
 import { exportCommand } from "./export.ts";
@@ -27,6 +28,7 @@ const COMMANDS: readonly Command[] = [
   watchCommand,
   mergeCommand,
   shardsCommand,
+  calibrateCommand,
   summaryCommand,
   exportCommand,
   plotCommand,

@@ -6,7 +6,15 @@ import { resumeRun, type SessionResult, startRun } from "../run/session.ts";
 import { convergenceStopper } from "../run/stopper.ts";
 import { loadProblem } from "../spec/mod.ts";
 import { fillStartValues } from "../search/mod.ts";
-import { type Command, defaultThreads, intOption, parseOptions, say, warn } from "./_common.ts";
+import {
+  checkWalkers,
+  type Command,
+  defaultThreads,
+  intOption,
+  parseOptions,
+  say,
+  warn,
+} from "./_common.ts";
 import { describeProblem } from "./describe.ts";
 import { progressPrinter } from "./progress.ts";
 
@@ -67,6 +75,13 @@ PID) flushes the chain and checkpoints; continue with \`rvwalk resume DIR\`.`,
     const seed = intOption(values.seed, "seed", s.seed, 0)!;
     const threads = intOption(values.threads, "threads", s.threads ?? defaultThreads())!;
     const model = new CompiledModel({ spec: problem.spec, data: problem.data });
+    checkWalkers(
+      walkers,
+      model.dimensions,
+      values.walkers === undefined
+        ? { file: positionals[0]!, field: "sampler.walkers" }
+        : { field: "--walkers" },
+    );
     for (const line of describeProblem(problem, model)) say(line);
     say(
       `sampling: ${walkers} walkers × ${steps} steps, seed ${seed}, ${threads} thread(s) → ${values.out}`,
@@ -146,9 +161,9 @@ Options:
       addSteps: intOption(values.more, "more", undefined),
       threads: intOption(values.threads, "threads", defaultThreads())!,
       onProgress: progressPrinter(),
+      onNote: (n) => say(`note: ${n}`),
       shouldStop: values["until-converged"] ? stopper(dir) : undefined,
     });
-    for (const n of result.notes) say(`note: ${n}`);
     return reportEnd(dir, result);
   },
 };

@@ -1,12 +1,12 @@
 /** `rvwalk summary DIR`. @module */
+import { InputError } from "../errors.ts";
 import { readChain } from "../run/chain_file.ts";
 import { readManifest } from "../run/manifest.ts";
 import { readStatus } from "../run/status.ts";
 import { summarise } from "../report/summary.ts";
 import { summaryText } from "../report/summary_text.ts";
 import { formatSummary } from "../report/summary_formats.ts";
-import { InputError } from "../errors.ts";
-import { type Command, intOption, parseOptions, say, warn } from "./_common.ts";
+import { chainNotice, type Command, intOption, parseOptions, say, warn } from "./_common.ts";
 
 export const summaryCommand: Command = {
   name: "summary",
@@ -45,16 +45,20 @@ Options:
     }
     const m = await readManifest(dir);
     const read = await readChain(dir, { walkers: m.walkers, columns: m.columns.length });
-    if (read.stop === "corrupt") {
-      warn(
-        `warning: chain file damaged after step ${read.stepsOnDisk} (${read.detail}); summarising the valid part`,
-      );
-    }
+    const notice = chainNotice(dir, read);
+    if (notice !== undefined) warn(notice);
     if (read.chain.steps === 0) {
       warn(`rvwalk summary: ${dir}: no steps written yet`);
       return 1;
     }
-    const s = summarise(m, read.chain, { burn: intOption(values.burn, "burn", undefined, 0) });
+    const burn = intOption(values.burn, "burn", undefined, 0);
+    if (burn !== undefined && burn >= read.chain.steps) {
+      throw new InputError(
+        `found ${burn}: expected fewer burn-in steps than the ${read.chain.steps} on disk`,
+        { field: "--burn" },
+      );
+    }
+    const s = summarise(m, read.chain, { burn });
     const params = values.params?.split(",").map((x) => x.trim()).filter((x) => x.length > 0);
     if (format === "json") {
       say(

@@ -90,30 +90,71 @@ export async function readManifest(dir: string): Promise<Manifest> {
     text = await Deno.readTextFile(file);
   } catch (err) {
     if (err instanceof Deno.errors.NotFound) {
-      throw new InputError("no manifest: expected a run directory written by rvwalk run", { file });
+      throw new InputError("found no manifest: expected a run directory written by rvwalk run", {
+        file,
+      });
     }
-    throw new InputError(`cannot read manifest: ${(err as Error).message}`, { file });
+    throw new InputError(
+      `cannot read manifest: ${String((err as Error).message).split("\n")[0]}`,
+      { file },
+    );
   }
   let m: Manifest;
   try {
     m = JSON.parse(text);
   } catch (err) {
-    throw new InputError(`manifest is not valid JSON: ${(err as Error).message}`, { file });
-  }
-  if (m?.format !== "rvwalk-run") {
-    throw new InputError(`found format ${JSON.stringify(m?.format)}: expected "rvwalk-run"`, {
-      file,
-      field: "format",
-    });
-  }
-  if (typeof m.formatVersion !== "number" || m.formatVersion > RUN_FORMAT_VERSION) {
     throw new InputError(
-      `run directory format ${m.formatVersion} was written by a newer rvwalk (${m.rvwalkVersion}): this is ${RVWALK_VERSION}, reading format ≤ ${RUN_FORMAT_VERSION}; upgrade rvwalk`,
+      `found text that is not valid JSON (${
+        String((err as Error).message).split("\n")[0]
+      }): expected the manifest written by rvwalk run`,
+      { file },
+    );
+  }
+  if (typeof m !== "object" || m === null || m.format !== "rvwalk-run") {
+    throw new InputError(
+      `found ${
+        JSON.stringify((m as { format?: unknown } | null)?.format ?? null)
+      }: expected "rvwalk-run"`,
+      { file, field: "format" },
+    );
+  }
+  if (!Number.isInteger(m.formatVersion) || m.formatVersion < 1) {
+    throw new InputError(
+      `found ${JSON.stringify(m.formatVersion ?? null)}: expected a whole number ≥ 1`,
       { file, field: "formatVersion" },
     );
   }
-  if (!Array.isArray(m.columns) || typeof m.walkers !== "number") {
-    throw new InputError("manifest lacks columns or walkers", { file });
+  if (m.formatVersion > RUN_FORMAT_VERSION) {
+    throw new InputError(
+      `found run-directory format ${m.formatVersion}, written by a newer rvwalk (${
+        String(m.rvwalkVersion)
+      }): expected format ≤ ${RUN_FORMAT_VERSION}, which this rvwalk ${RVWALK_VERSION} reads; upgrade rvwalk to read this run`,
+      { file, field: "formatVersion" },
+    );
+  }
+  if (!Number.isInteger(m.walkers) || m.walkers < 1) {
+    throw new InputError(
+      `found ${JSON.stringify(m.walkers ?? null)}: expected a whole number ≥ 1`,
+      {
+        file,
+        field: "walkers",
+      },
+    );
+  }
+  if (
+    !Array.isArray(m.columns) || m.columns.length < 2 ||
+    !m.columns.every((c) => typeof c === "string")
+  ) {
+    throw new InputError("found no list of column names: expected columns as written by rvwalk", {
+      file,
+      field: "columns",
+    });
+  }
+  if (!Array.isArray(m.parameters)) {
+    throw new InputError("found no parameter list: expected parameters as written by rvwalk", {
+      file,
+      field: "parameters",
+    });
   }
   return m;
 }

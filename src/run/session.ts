@@ -58,6 +58,8 @@ export interface SessionOptions {
   /** Override flush settings (tests). */
   readonly flushSeconds?: number;
   readonly flushSteps?: number;
+  /** Called at once with notes worth telling (a checkpoint fallback, a restart). */
+  readonly onNote?: (note: string) => void;
   /** Handle SIGINT/SIGTERM (default true). */
   readonly handleSignals?: boolean;
 }
@@ -186,12 +188,16 @@ export async function resumeRun(
   const manifest = await readManifest(dir);
   const lock: RunLock = await acquireLock(dir);
   const notes: string[] = [];
+  const note = (n: string) => {
+    notes.push(n);
+    options.onNote?.(n);
+  };
   try {
     const payload: ModelPayload = { spec: manifest.spec, data: typedData(manifest.data) };
     if (await neverCheckpointed(dir)) {
       // Killed after writing the manifest but before the first checkpoint:
       // start again from the spec's start point (deterministic for the seed).
-      notes.push("no checkpoint yet (stopped during start-up); starting from the beginning");
+      note("no checkpoint yet (stopped during start-up); starting from the beginning");
       await truncateChain(dir, 0);
       const model = new CompiledModel(payload);
       const target = options.addSteps ?? options.steps ?? manifest.spec.sampler.steps;
@@ -200,7 +206,7 @@ export async function resumeRun(
     }
     const loaded = await loadCheckpoint(dir);
     if (loaded.usedFallback) {
-      notes.push(`newest checkpoint unusable (${loaded.reason}); resumed from the previous one`);
+      note(`newest checkpoint unusable (${loaded.reason}); resumed from the previous one`);
     }
     const cp = loaded.checkpoint;
     await truncateChain(dir, cp.chainBytes);
@@ -392,10 +398,13 @@ async function prepareDir(dir: string): Promise<void> {
   try {
     const info = await Deno.stat(dir);
     if (!info.isDirectory) {
-      throw new InputError("output path is a file: expected a run directory", {
-        file: dir,
-        field: "--out",
-      });
+      throw new InputError(
+        "output path is a file: expected a folder for the run directory (new or empty)",
+        {
+          file: dir,
+          field: "--out",
+        },
+      );
     }
     for await (const e of Deno.readDir(dir)) {
       if (e.name === "manifest.json" || e.name === "chain.bin") {
@@ -408,7 +417,7 @@ async function prepareDir(dir: string): Promise<void> {
   } catch (err) {
     if (err instanceof InputError) throw err;
     if (!(err instanceof Deno.errors.NotFound)) {
-      throw new InputError(`cannot use output path: ${(err as Error).message}`, {
+      throw new InputError(`cannot use output path (${firstLine(err)}): expected a folder path`, {
         file: dir,
         field: "--out",
       });
@@ -416,10 +425,15 @@ async function prepareDir(dir: string): Promise<void> {
     try {
       await Deno.mkdir(dir, { recursive: true });
     } catch (e) {
-      throw new InputError(`cannot create run directory: ${(e as Error).message}`, {
-        file: dir,
-        field: "--out",
-      });
+      throw new InputError(
+        `cannot create the run directory (${
+          firstLine(e)
+        }): expected a path where folders can be created`,
+        {
+          file: dir,
+          field: "--out",
+        },
+      );
     }
   }
   // Fail early if not writable.
@@ -428,10 +442,13 @@ async function prepareDir(dir: string): Promise<void> {
     await Deno.writeTextFile(probe, "");
     await Deno.remove(probe);
   } catch (e) {
-    throw new InputError(`run directory is not writable: ${(e as Error).message}`, {
-      file: dir,
-      field: "--out",
-    });
+    throw new InputError(
+      `run directory is not writable (${firstLine(e)}): expected a writable folder`,
+      {
+        file: dir,
+        field: "--out",
+      },
+    );
   }
 }
 
@@ -471,4 +488,8 @@ async function neverCheckpointed(dir: string): Promise<boolean> {
   } catch {
     return true;
   }
+}
+
+function firstLine(err: unknown): string {
+  return String((err as Error)?.message ?? err).split("\n")[0]!;
 }

@@ -58,8 +58,12 @@ export function parseSpecText(text: string, options: { file: string; dir: string
     doc = parseToml(text) as Table;
   } catch (err) {
     const e = err as { line?: number; column?: number; message?: string };
-    const first = String(e.message ?? err).split("\n")[0];
-    throw new InputError(`cannot parse TOML: ${first}`, { file, line: e.line });
+    const first = String(e.message ?? err).split("\n")[0]!.replace(/^Invalid TOML document: /, "");
+    const col = typeof e.column === "number" ? ` at column ${e.column}` : "";
+    throw new InputError(`cannot parse TOML: found ${first}${col}: expected TOML syntax`, {
+      file,
+      line: typeof e.line === "number" ? e.line : undefined,
+    });
   }
   const ctx = new Ctx(file);
   ctx.allowKeys(doc, "", ["title", "star", "data", "instrument", "planet", "trend", "sampler"]);
@@ -213,6 +217,10 @@ function parseRm(ctx: Ctx, t: Table, planet: string): RmSpec {
   if (support(impact.prior)[0] < 0) {
     throw ctx.err(`${planet}.impact`, "prior allows negative values: expected impact ≥ 0");
   }
+  const exposureS = t.exposure_s === undefined ? 0 : ctx.finite(t.exposure_s, `${k}.exposure_s`);
+  if (exposureS < 0) {
+    throw ctx.err(`${k}.exposure_s`, `found ${exposureS}: expected seconds ≥ 0`);
+  }
   return {
     lambdaDeg: need("lambda_deg"),
     vsiniKms: need("vsini_kms", { positive: true }),
@@ -221,7 +229,7 @@ function parseRm(ctx: Ctx, t: Table, planet: string): RmSpec {
     impact,
     u1: ctx.param(ld[0], `${planet}.u1`),
     u2: ctx.param(ld[1], `${planet}.u2`),
-    exposureS: t.exposure_s === undefined ? 0 : ctx.finite(t.exposure_s, `${k}.exposure_s`),
+    exposureS,
   };
 }
 
@@ -439,7 +447,7 @@ class Ctx {
 function show(v: unknown): string {
   if (v === undefined) return "nothing";
   if (typeof v === "string") return `"${v}"`;
-  if (typeof v === "bigint") return v.toString();
+  if (typeof v === "bigint" || typeof v === "number") return String(v);
   try {
     return JSON.stringify(v) ?? String(v);
   } catch {

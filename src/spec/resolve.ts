@@ -34,14 +34,15 @@ export function resolveProblem(written: WrittenSpec, table: RvTable): Problem {
   const notes = [...table.notes];
   const warnings: string[] = [];
   const file = written.specPath;
-  const dataNames: string[] = [];
-  for (const n of table.instrumentName) if (!dataNames.includes(n)) dataNames.push(n);
+  const dataNames = table.instruments;
   const byName = new Map(written.writtenInstruments.map((w) => [w.name, w]));
   for (const w of written.writtenInstruments) {
     if (!dataNames.includes(w.name)) {
       throw new InputError(
-        `instrument \`${w.name}\` has no rows in the data: expected one of ${dataNames.join(", ")}`,
-        { file, field: "instrument.name" },
+        `instrument \`${w.name}\` has no rows in the data (${
+          table.files.join(", ")
+        }): expected one of the instruments found there: ${dataNames.join(", ")}`,
+        { file, field: `instrument[${written.writtenInstruments.indexOf(w)}].name` },
       );
     }
   }
@@ -52,11 +53,7 @@ export function resolveProblem(written: WrittenSpec, table: RvTable): Problem {
   ];
   const instruments: InstrumentSpec[] = order.map((name) => {
     const w = byName.get(name);
-    const rows = [];
-    for (let i = 0; i < table.time.length; i++) {
-      if (table.instrumentName[i] === name) rows.push(table.rv[i]!);
-    }
-    const dflt = defaultInstrument(rows);
+    const dflt = defaultInstrument(table, dataNames.indexOf(name));
     if (w === undefined || w.offset === undefined || w.jitter === undefined) {
       const which = w === undefined ? "no [[instrument]] table" : "missing offset or jitter";
       notes.push(
@@ -75,16 +72,19 @@ export function resolveProblem(written: WrittenSpec, table: RvTable): Problem {
   const index = new Map(instruments.map((ins, i) => [ins.name, i]));
   const count = table.time.length;
   const instrument = new Int32Array(count);
-  for (let i = 0; i < count; i++) instrument[i] = index.get(table.instrumentName[i]!)!;
+  const toSpec = Int32Array.from(dataNames, (n) => index.get(n)!);
+  for (let i = 0; i < count; i++) instrument[i] = toSpec[table.instrumentIndex[i]!]!;
 
   const t0 = table.time[0]!;
   const t1 = table.time[count - 1]!;
   const span = t1 - t0;
   for (const p of written.planets) {
     const [, hi] = support(p.period.prior);
-    if (span > 0 && hi > 10 * span) {
+    if (span > 0 && Number.isFinite(hi) && hi > 10 * span) {
       warnings.push(
-        `${p.name}.period: prior reaches ${fmt(hi)} d, more than ten times the data span of ${
+        `${file}: ${p.name}.period: prior reaches ${
+          fmt(hi)
+        } d, more than ten times the data span of ${
           fmt(span)
         } d; the period is then weakly constrained by the data and the prior shapes the result`,
       );
@@ -112,10 +112,25 @@ export function resolveProblem(written: WrittenSpec, table: RvTable): Problem {
   };
 }
 
-function defaultInstrument(rv: number[]): { offset: ParamSpec; jitter: ParamSpec } {
-  const n = rv.length;
-  const mean = rv.reduce((a, b) => a + b, 0) / n;
-  const sd = Math.sqrt(rv.reduce((a, b) => a + (b - mean) ** 2, 0) / Math.max(1, n - 1));
+function defaultInstrument(
+  table: RvTable,
+  k: number,
+): { offset: ParamSpec; jitter: ParamSpec } {
+  // Two passes over the rows of instrument k: mean, then sample standard deviation.
+  let n = 0;
+  let sum = 0;
+  for (let i = 0; i < table.rv.length; i++) {
+    if (table.instrumentIndex[i] === k) {
+      n++;
+      sum += table.rv[i]!;
+    }
+  }
+  const mean = sum / n;
+  let ss = 0;
+  for (let i = 0; i < table.rv.length; i++) {
+    if (table.instrumentIndex[i] === k) ss += (table.rv[i]! - mean) ** 2;
+  }
+  const sd = Math.sqrt(ss / Math.max(1, n - 1));
   const half = Math.ceil(10 * sd + 100);
   const centre = Math.round(mean);
   return {
@@ -125,7 +140,7 @@ function defaultInstrument(rv: number[]): { offset: ParamSpec; jitter: ParamSpec
 }
 
 function fmt(x: number): string {
-  return Number.isInteger(x) ? String(x) : x.toPrecision(6);
+  return Number.isInteger(x) ? String(x) : String(Number(x.toPrecision(6)));
 }
 
 function round3(x: number): number {

@@ -29,6 +29,8 @@ function summary(): Summary {
     walkers: 10,
     burn: 200,
     burnRule: "auto",
+    thin: 1,
+    draws: 8000,
     thresholds: { rhat: 1.01, essBulk: 400, stepsPerTau: 50 },
     parameters: {
       "b.period": iv(12.3456789, 0.00123, 0.00151, "d"),

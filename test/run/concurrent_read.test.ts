@@ -18,7 +18,7 @@ test(
     const follower = new ChainFollower(dir, { ...SHAPE, capacity: 64 });
     let reads = 0;
     let torn = 0;
-    let last = new Float64Array(0);
+    let last: Float64Array = new Float64Array(0);
     let done = false;
     writer.status.then(() => (done = true));
     // Read as fast as we can while the writer appends blocks of 50 steps.

@@ -9,8 +9,8 @@
  */
 import { RunWatcher } from "../src/run/snapshot.ts";
 
-const STEPS = 4000;
-const PAIRS = 3;
+const STEPS = 30000;
+const PAIRS = 2;
 
 async function timedRun(dir: string, watch: boolean): Promise<number> {
   const main = new URL("../src/cli/main.ts", import.meta.url).pathname;

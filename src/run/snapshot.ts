@@ -48,7 +48,7 @@ export class RunWatcher {
    */
   constructor(dir: string, options: { heavyEveryMs?: number } = {}) {
     this.dir = dir;
-    this.#heavyEveryMs = options.heavyEveryMs ?? 5000;
+    this.#heavyEveryMs = options.heavyEveryMs ?? 10_000;
   }
 
   /** Read what is new and build a snapshot. Throws InputError if DIR is not a run. */

@@ -60,7 +60,12 @@ async function writerMemory(): Promise<void> {
     console.log(
       `writer RSS at 1e4 steps: ${a.toFixed(1)} MiB; at 2e5 steps: ${b.toFixed(1)} MiB; ratio ${
         (b / a).toFixed(2)
-      } (flat = 1)`,
+      } (flat = 1; RSS includes garbage not yet collected)`,
+    );
+    console.log(
+      `writer V8 heap + external at 1e4 steps: ${heap.get(10_000)!.toFixed(1)} MiB; at 2e5: ${
+        heap.get(200_000)!.toFixed(1)
+      } MiB`,
     );
     console.log(
       `  wrote ${(bytes / 2 ** 30).toFixed(2)} GiB in ${

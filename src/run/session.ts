@@ -55,6 +55,13 @@ export interface SessionOptions {
   readonly onProgress?: (p: Progress) => void;
   /** Stop when this returns true (checked after every flush). */
   readonly shouldStop?: (step: number) => boolean | Promise<boolean>;
+  /**
+   * Steps between `shouldStop` checks (rounded up to a multiple of the
+   * thinning). Checks happen at fixed steps, after a flush, so a run that stops
+   * on convergence stops at the same step whatever the machine's speed.
+   * @default the spec's `[sampler] check_every`
+   */
+  readonly checkEvery?: number;
   /** Override flush settings (tests). */
   readonly flushSeconds?: number;
   readonly flushSteps?: number;
@@ -276,6 +283,8 @@ async function loop(
   let block = new Float64Array(Math.min(flushSteps, 64) * W * columns);
   let blockSteps = 0;
   const thin = input.manifest.thin ?? 1;
+  const every = options.checkEvery ?? input.manifest.spec.sampler.checkEvery ?? 2500;
+  const checkEvery = Math.max(thin, Math.ceil(every / thin) * thin);
   let blockFirst = Math.floor(state.step / thin);
   let flushedStep = state.step;
   let chainBytes = input.flushedBytes;
@@ -358,12 +367,14 @@ async function loop(
       const now = performance.now();
       times.push(now);
       if (times.length > 200) times.shift();
+      const checkNow = store && options.shouldStop !== undefined && state.step % checkEvery === 0;
       if (
-        store && (blockSteps >= flushSteps || now - lastFlush >= flushMs || state.step >= target)
+        store &&
+        (checkNow || blockSteps >= flushSteps || now - lastFlush >= flushMs || state.step >= target)
       ) {
         await flush();
         await status("running");
-        if (options.shouldStop !== undefined && await options.shouldStop(state.step)) break;
+        if (checkNow && await options.shouldStop!(state.step)) break;
       }
       options.onProgress?.({
         step: state.step,

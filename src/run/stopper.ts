@@ -1,6 +1,6 @@
 /**
  * Stopping a run once the convergence criteria hold (`--until-converged`):
- * after a flush, at most every `everyMs`, the chain appended since the last
+ * at the session's check steps (after a flush), the chain appended since the last
  * check is read into streaming diagnostics and the criteria are tested
  * (R-hat, bulk ESS, steps/τ as in `[sampler]`). A met criterion is a flag,
  * never a proof of convergence.
@@ -21,7 +21,7 @@ export function convergenceStopper(
   dir: string,
   options: { everyMs?: number; onCheck?: (c: StopCheck) => void } = {},
 ): (step: number) => Promise<boolean> {
-  const every = options.everyMs ?? 10_000;
+  const every = options.everyMs ?? 0;
   let follower: ChainFollower | undefined;
   let keys: string[] = [];
   let thresholds = { rhat: 1.01, essBulk: 400, stepsPerTau: 50 };

@@ -40,6 +40,7 @@ export const SAMPLER_DEFAULTS = {
   steps: 20000,
   seed: 1,
   untilConverged: false,
+  checkEvery: 2500,
   // Vehtari et al. 2021 (Bayesian Analysis 16(2), 667, sec. 4): R-hat < 1.01, bulk ESS > 400.
   // 50 autocorrelation times: common practice for ensemble samplers (Foreman-Mackey et al. 2013).
   thresholds: { rhat: 1.01, essBulk: 400, stepsPerTau: 50 },
@@ -242,6 +243,7 @@ function parseSampler(ctx: Ctx, t: Table): SamplerSpec {
     "thin",
     "moves",
     "until_converged",
+    "check_every",
     "rhat_max",
     "ess_bulk_min",
     "steps_per_tau_min",
@@ -292,6 +294,7 @@ function parseSampler(ctx: Ctx, t: Table): SamplerSpec {
     thin: int("thin", 1, 1),
     moves,
     untilConverged: uc ?? d.untilConverged,
+    checkEvery: int("check_every", d.checkEvery, 1),
     thresholds: {
       rhat: num("rhat_max", d.thresholds.rhat),
       essBulk: num("ess_bulk_min", d.thresholds.essBulk),

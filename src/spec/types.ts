@@ -89,6 +89,8 @@ export interface SamplerSpec {
   readonly moves: readonly MoveSpec[];
   /** Stop early when converged (`--until-converged`). */
   readonly untilConverged: boolean;
+  /** Steps between convergence checks when stopping on convergence. */
+  readonly checkEvery: number;
   readonly thresholds: {
     readonly rhat: number;
     readonly essBulk: number;

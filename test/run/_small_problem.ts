@@ -17,7 +17,7 @@ jitter = { loguniform = [0.1, 20], start = 1 }
 [[planet]]
 name = "b"
 period = { loguniform = [8, 12], start = 10.1 }
-tc = { uniform = [2460001, 2460009], start = 2460005 }
+tc = { uniform = [2460006, 2460014], start = 2460010 }
 semi_amplitude = { loguniform = [1, 100], start = 20 }
 eccentricity = 0
 omega_deg = 90

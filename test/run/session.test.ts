@@ -74,3 +74,36 @@ describe("run and resume", () => {
     expect(cp.chainBytes).toBe((await Deno.stat(`${dir}/chain.bin`)).size);
   });
 });
+
+describe("run --until-converged", () => {
+  test("stops at the same step for any thread count, once the criteria hold", async () => {
+    const { SMALL_SPEC } = await import("./_small_problem.ts");
+    const spec = await writeSmallProblem({
+      spec: SMALL_SPEC.replace("steps = 400", "steps = 50000\ncheck_every = 200"),
+    });
+    const base = spec.replace(/spec\.toml$/, "");
+    const outs = [];
+    for (const threads of ["1", "2"]) {
+      const r = await cli([
+        "run",
+        spec,
+        "--out",
+        `${base}uc${threads}`,
+        "--threads",
+        threads,
+        "--until-converged",
+      ]);
+      expect(r.code).toBe(0);
+      const m = /step (\d+): convergence criteria met/.exec(r.stdout);
+      expect(m, r.stdout).not.toBeNull();
+      outs.push(Number(m![1]));
+    }
+    expect(outs[0]).toBe(outs[1]);
+    expect(outs[0]! % 200).toBe(0);
+    expect(outs[0]!).toBeLessThan(50000);
+    expect(sameBytes(await chainBytes(`${base}uc1`), await chainBytes(`${base}uc2`))).toBe(true);
+    // The stopped run's own summary agrees that the criteria hold.
+    const s = JSON.parse((await cli(["summary", `${base}uc1`, "--json"])).stdout);
+    expect(s.steps).toBe(outs[0]);
+  });
+});

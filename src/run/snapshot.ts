@@ -14,7 +14,7 @@ import { readStatus } from "./status.ts";
 /** Most posterior draws per parameter handed to the screen. */
 const MAX_DRAWS = 4096;
 /** Reservoir steps per walker kept for the screen's diagnostics. */
-const CAPACITY = 256;
+const CAPACITY = 512;
 
 /** The part of a snapshot computed from the chain (diagnostics, draws, derived). */
 type Heavy = Pick<

@@ -40,8 +40,8 @@ export interface BurnIn {
  *
  * - tau_max is the largest integrated autocorrelation time of `columns`
  *   over the whole chain (which includes the transient, so it errs long).
- *   Discarding a few tau is common practice (e.g. the emcee documentation's
- *   autocorrelation tutorial uses 2 tau_max; no stronger source).
+ *   Discarding a few tau is common practice (2 tau_max here; common
+ *   practice, no source).
  * - settleStep: let m(s) be the walker-mean log-posterior at step s, and med
  *   and sd the median and standard deviation of m over the final half
  *   [floor(N/2), N). settleStep is the first step s <= floor(N/2) such that

@@ -22,9 +22,8 @@ export interface ConvergenceThresholds {
  * Default thresholds. R-hat < 1.01 and bulk ESS > 400 are the
  * recommendations of Vehtari et al. 2021 (Bayesian Analysis 16(2), 667,
  * arXiv:1903.08008, sec. 4; 400 = 100 per chain for four chains). Running
- * more than 50 tau is common practice for ensemble samplers, recommended in
- * the emcee documentation (autocorrelation tutorial) following
- * Foreman-Mackey et al. 2013 (PASP 125, 306); no stronger source.
+ * more than 50 tau is common practice for ensemble samplers (discussed by
+ * Foreman-Mackey et al. 2013, PASP 125, 306); no stronger source.
  */
 export const DEFAULT_THRESHOLDS: Readonly<ConvergenceThresholds> = Object.freeze({
   rhat: 1.01,

@@ -53,6 +53,42 @@ export interface Summary {
 }
 
 /**
+ * Convergence of a whole chain as `summary` judges it: burn-in by the
+ * automatic rule (or `burn`, in sampler steps), then the full report. Shared
+ * with the `--until-converged` stopper so that a run stops only when its
+ * summary will agree.
+ */
+export function fullConvergence(
+  manifest: Manifest,
+  chain: ChainData,
+  options: { burn?: number } = {},
+): { burn: number; burnRule: "auto" | "given"; report: ConvergenceReport | undefined } {
+  const view = {
+    data: chain.data,
+    steps: chain.steps,
+    walkers: chain.walkers,
+    columns: chain.columns,
+  };
+  const columns = manifest.parameters.map((_, i) => 2 + i);
+  const names = manifest.parameters.map((p) => p.key);
+  const thin = manifest.thin ?? 1;
+  let burn: number;
+  let burnRule: "auto" | "given";
+  if (options.burn !== undefined) {
+    burn = Math.min(Math.ceil(options.burn / thin), Math.max(0, chain.steps - 1));
+    burnRule = "given";
+  } else {
+    burn = chain.steps < 4 ? 0 : chooseBurnIn(view, { columns, logPosteriorColumn: 0 }).burn;
+    burnRule = "auto";
+  }
+  const thresholds = manifest.spec.sampler.thresholds;
+  const report = chain.steps - burn >= 4
+    ? convergenceReport(view, { columns, burn, thresholds, names, logPosteriorColumn: 0 })
+    : undefined;
+  return { burn, burnRule, report };
+}
+
+/**
  * Summarise a chain read in full (all stored rows from 0). `burn` (in sampler
  * steps) overrides the automatic choice. Steps, burn-in and τ are reported in
  * sampler steps: stored row k is step (k + 1)·thin.
@@ -69,22 +105,9 @@ export function summarise(
     columns: chain.columns,
   };
   const lead = 2;
-  const columns = manifest.parameters.map((_, i) => lead + i);
-  const names = manifest.parameters.map((p) => p.key);
-  let burn: number;
-  let burnRule: Summary["burnRule"];
-  const thin = manifest.thin ?? 1;
-  if (options.burn !== undefined) {
-    burn = Math.min(Math.ceil(options.burn / thin), Math.max(0, chain.steps - 1));
-    burnRule = "given";
-  } else {
-    burn = chain.steps < 4 ? 0 : chooseBurnIn(view, { columns, logPosteriorColumn: 0 }).burn;
-    burnRule = "auto";
-  }
+  const { burn, burnRule, report } = fullConvergence(manifest, chain, options);
   const thresholds = manifest.spec.sampler.thresholds;
-  const report: ConvergenceReport | undefined = chain.steps - burn >= 4
-    ? convergenceReport(view, { columns, burn, thresholds, names, logPosteriorColumn: 0 })
-    : undefined;
+  const thin = manifest.thin ?? 1;
   const acc = acceptanceFractions(view, { column: 1 });
   let accMean = 0;
   for (const a of acc) accMean += a / acc.length;

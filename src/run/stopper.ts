@@ -2,12 +2,16 @@
  * Stopping a run once the convergence criteria hold (`--until-converged`):
  * at the session's check steps (after a flush), the chain appended since the last
  * check is read into streaming diagnostics and the criteria are tested
- * (R-hat, bulk ESS, steps/τ as in `[sampler]`). A met criterion is a flag,
- * never a proof of convergence.
+ * (R-hat, bulk ESS, steps/τ as in `[sampler]`). When the reservoir says the
+ * criteria hold, the whole chain is read and judged exactly as `summary` judges
+ * it (same burn-in rule, full-chain diagnostics), and the run stops only if
+ * that agrees. A met criterion is a flag, never a proof of convergence.
  * @module
  */
+import { fullConvergence } from "../report/summary.ts";
+import { readChain } from "./chain_file.ts";
 import { ChainFollower } from "./follow.ts";
-import { readManifest } from "./manifest.ts";
+import { type Manifest, readManifest } from "./manifest.ts";
 
 /** What the last check found. */
 export interface StopCheck {
@@ -23,6 +27,7 @@ export function convergenceStopper(
 ): (step: number) => Promise<boolean> {
   const every = options.everyMs ?? 0;
   let follower: ChainFollower | undefined;
+  let manifest: Manifest | undefined;
   let keys: string[] = [];
   let thresholds = { rhat: 1.01, essBulk: 400, stepsPerTau: 50 };
   let last = -Infinity;
@@ -32,6 +37,7 @@ export function convergenceStopper(
     last = now;
     if (follower === undefined) {
       const m = await readManifest(dir);
+      manifest = m;
       keys = m.parameters.map((p) => p.key);
       thresholds = m.spec.sampler.thresholds;
       follower = new ChainFollower(dir, {
@@ -48,7 +54,21 @@ export function convergenceStopper(
       logPosteriorColumn: 0,
       thresholds,
     });
-    options.onCheck?.({ step, converged: r.converged, reasons: r.reasons });
-    return r.converged;
+    if (!r.converged) {
+      options.onCheck?.({ step, converged: false, reasons: r.reasons });
+      return false;
+    }
+    const full = await readChain(dir, {
+      walkers: manifest!.walkers,
+      columns: manifest!.columns.length,
+    });
+    const f = fullConvergence(manifest!, full.chain).report;
+    const converged = f?.converged ?? false;
+    options.onCheck?.({
+      step,
+      converged,
+      reasons: converged ? [] : (f?.reasons ?? ["too few steps"]).map((x) => `full chain: ${x}`),
+    });
+    return converged;
   };
 }

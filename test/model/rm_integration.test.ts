@@ -12,6 +12,7 @@
  */
 import seedrandom from "seedrandom";
 import { describe, expect, test } from "vitest";
+import { runCli } from "../_cli.ts";
 import { parseRvCsv } from "../../src/data/mod.ts";
 import { CompiledModel } from "../../src/model/posterior.ts";
 import { addRmAnomaly, type RmParams } from "../../src/model/rm.ts";
@@ -392,18 +393,7 @@ describe("parseSpecText() on [planet.rm]", () => {
 // A real (short) run through the CLI.
 // ---------------------------------------------------------------------------
 
-const MAIN = new URL("../../src/cli/main.ts", import.meta.url).pathname;
-
-async function cli(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  const out = await new Deno.Command(Deno.execPath(), {
-    args: ["run", "-A", MAIN, ...args],
-    stdout: "piped",
-    stderr: "piped",
-    env: { NO_COLOR: "1" },
-  }).output();
-  const dec = new TextDecoder();
-  return { code: out.code, stdout: dec.decode(out.stdout), stderr: dec.decode(out.stderr) };
-}
+const cli = (args: string[]) => runCli(args);
 
 /** Quantile by Hyndman & Fan (1996, Am. Stat. 50, 361) definition 7, written here. */
 function quantile(values: number[], p: number): number {

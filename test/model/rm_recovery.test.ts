@@ -25,24 +25,15 @@
  * checked by simulation-based calibration (test/calibrate/).
  */
 import { describe, expect, test } from "vitest";
+import { runCli } from "../_cli.ts";
 import { makeScenario, SEED } from "../../examples/rm_demo/make_data.ts";
 
 const DEMO = new URL("../../examples/rm_demo/", import.meta.url).pathname;
-const MAIN = new URL("../../src/cli/main.ts", import.meta.url).pathname;
 const WALKERS = 40;
 const STEPS = 8000;
 const SAMPLER_SEED = 312;
 
-async function cli(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  const out = await new Deno.Command(Deno.execPath(), {
-    args: ["run", "-A", MAIN, ...args],
-    stdout: "piped",
-    stderr: "piped",
-    env: { NO_COLOR: "1" },
-  }).output();
-  const dec = new TextDecoder();
-  return { code: out.code, stdout: dec.decode(out.stdout), stderr: dec.decode(out.stderr) };
-}
+const cli = (args: string[]) => runCli(args);
 
 interface Interval {
   median: number;

@@ -3,6 +3,7 @@
  * run-directory tests: 30 RVs of a fictitious star, one instrument.
  */
 import seedrandom from "seedrandom";
+import { type CliResult, runCli } from "../_cli.ts";
 
 export const SMALL_SPEC = `
 title = "small invented test problem"
@@ -48,21 +49,11 @@ function gauss(rng: () => number): number {
   return Math.sqrt(-2 * Math.log(1 - rng())) * Math.cos(2 * Math.PI * rng());
 }
 
-/** The CLI entry point, for spawning real processes. */
-export const MAIN = new URL("../../src/cli/main.ts", import.meta.url).pathname;
+export { MAIN } from "../_cli.ts";
 
 /** Run the CLI in a child process; returns code and output. */
-export async function cli(
-  args: string[],
-): Promise<{ code: number; stdout: string; stderr: string }> {
-  const out = await new Deno.Command(Deno.execPath(), {
-    args: ["run", "-A", MAIN, ...args],
-    stdout: "piped",
-    stderr: "piped",
-    env: { NO_COLOR: "1" },
-  }).output();
-  const dec = new TextDecoder();
-  return { code: out.code, stdout: dec.decode(out.stdout), stderr: dec.decode(out.stderr) };
+export function cli(args: string[]): Promise<CliResult> {
+  return runCli(args);
 }
 
 /** Byte equality of two arrays' contents (fast; vitest's deep equality is slow on megabytes). */

@@ -4,8 +4,6 @@
  * @module
  */
 
-const MAIN = new URL("../../src/cli/main.ts", import.meta.url).pathname;
-
 /** Folder of the invented three-planet example (examples/three_planets/). */
 export const THREE_PLANETS = new URL("../../examples/three_planets/", import.meta.url).pathname;
 
@@ -48,22 +46,4 @@ export async function capture<T>(
   }
 }
 
-/** What one CLI run gave. */
-export interface CliResult {
-  readonly code: number;
-  readonly stdout: string;
-  readonly stderr: string;
-}
-
-/** Run `rvwalk ARGS` as a child process (no terminal, so no dashboard). */
-export async function runCli(args: readonly string[]): Promise<CliResult> {
-  const out = await new Deno.Command(Deno.execPath(), {
-    args: ["run", "-A", MAIN, ...args],
-    stdin: "null",
-    stdout: "piped",
-    stderr: "piped",
-    env: { NO_COLOR: "1" },
-  }).output();
-  const dec = new TextDecoder();
-  return { code: out.code, stdout: dec.decode(out.stdout), stderr: dec.decode(out.stderr) };
-}
+export { type CliResult, runCli } from "../_cli.ts";

@@ -4,34 +4,7 @@
  * @module
  */
 
-const MAIN = new URL("../../src/cli/main.ts", import.meta.url).pathname;
-
-/** What one CLI run gave. */
-export interface CliResult {
-  readonly code: number;
-  readonly stdout: string;
-  readonly stderr: string;
-}
-
-/** Run `rvwalk ARGS` in `cwd` as a child process (no terminal, so no dashboard). */
-export async function runCli(args: readonly string[], cwd: string): Promise<CliResult> {
-  const out = await new Deno.Command(Deno.execPath(), {
-    args: ["run", "-A", MAIN, ...args],
-    cwd,
-    stdin: "null",
-    stdout: "piped",
-    stderr: "piped",
-    env: { NO_COLOR: "1" },
-  }).output();
-  const dec = new TextDecoder();
-  // Deno itself (not rvwalk) prints this while another deno process sets up
-  // node_modules; tests run several CLIs at once, so it is dropped here.
-  const stderr = dec.decode(out.stderr).replace(
-    /^Blocking waiting for file lock on node_modules directory\n/gm,
-    "",
-  );
-  return { code: out.code, stdout: dec.decode(out.stdout), stderr };
-}
+export { type CliResult, runCli } from "../_cli.ts";
 
 /** Lines of `text` without the final newline. */
 export function lines(text: string): string[] {

@@ -51,9 +51,15 @@ def main():
             m = 2 * np.pi * (t[None, :] - tp[:, None]) / period[:, None]
             m = np.remainder(m, 2 * np.pi)
             ecc = e[:, None]
-            big_e = m + ecc * np.sin(m)
-            for _ in range(8):
-                big_e = big_e - (big_e - ecc * np.sin(big_e) - m) / (1 - ecc * np.cos(big_e))
+            # Starter E0 = M + 0.85 e sign(sin M) (Danby 1988), then Newton steps until
+            # the largest correction is below 1e-12 (typically 3–5 for e < 0.95).
+            big_e = m + 0.85 * ecc * np.sign(np.sin(m))
+            for _ in range(30):
+                sin_e, cos_e = np.sin(big_e), np.cos(big_e)
+                step = (big_e - ecc * sin_e - m) / (1 - ecc * cos_e)
+                big_e -= step
+                if np.max(np.abs(step)) < 1e-12:
+                    break
             cos_e, sin_e = np.cos(big_e), np.sin(big_e)
             den = 1 - ecc * cos_e
             cw, sw = np.cos(w)[:, None], np.sin(w)[:, None]

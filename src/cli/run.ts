@@ -200,10 +200,11 @@ function reportEnd(dir: string, r: SessionResult): number {
 }
 
 /**
- * Run the sampler as a child process writing to DIR/log.txt. Detached: in a
- * session of its own (survives logout), and we return at once. Otherwise the
- * dashboard is shown; q leaves it with the run going on, Ctrl-C (which reaches
- * the child too, being in our process group) stops the run cleanly.
+ * Run the sampler as a child process writing to DIR/log.txt, always in a
+ * session of its own, so a dropped SSH link or a closed terminal never stops
+ * it. With `detached` we return at once; otherwise the dashboard is shown:
+ * q leaves it with the run going on, Ctrl-C sends the run SIGINT, which
+ * flushes, checkpoints and stops it cleanly.
  */
 async function background(
   dir: string,
@@ -228,7 +229,7 @@ async function background(
     stdin: "null",
     stdout: "null",
     stderr: "null",
-    detached: options.detached,
+    detached: true,
   }).spawn();
   if (options.detached) {
     child.unref();

@@ -136,6 +136,8 @@ Options:
   --more N           take N steps beyond the checkpoint instead
   --threads T        worker threads (default: cores)
   --until-converged  stop early once the convergence criteria hold
+  --take-lock        take over a lock left by a process on another host
+                     (only when you know it is gone, e.g. a lost cluster node)
   --no-ui            plain progress lines even on a terminal`,
   async run(args) {
     const { values, positionals } = parseOptions(args, {
@@ -143,6 +145,7 @@ Options:
       more: { type: "string" },
       threads: { type: "string" },
       "until-converged": { type: "boolean" },
+      "take-lock": { type: "boolean" },
       "no-ui": { type: "boolean" },
     }, { min: 1, max: 1, names: "DIR" });
     if (values.help) return say(this.help), 0;
@@ -154,6 +157,7 @@ Options:
         if (values[k] !== undefined) childArgs.push(`--${k}`, values[k]!);
       }
       if (values["until-converged"]) childArgs.push("--until-converged");
+      if (values["take-lock"]) childArgs.push("--take-lock");
       return await background(dir, childArgs, { detached: false });
     }
     const result = await resumeRun(dir, {
@@ -162,6 +166,7 @@ Options:
       threads: intOption(values.threads, "threads", defaultThreads())!,
       onProgress: progressPrinter(),
       onNote: (n) => say(`note: ${n}`),
+      takeLock: values["take-lock"],
       shouldStop: values["until-converged"] ? stopper(dir) : undefined,
     });
     return reportEnd(dir, result);

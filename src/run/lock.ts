@@ -20,8 +20,17 @@ export interface RunLock {
   release(): Promise<void>;
 }
 
-/** Acquire the lock or throw {@link InputError} naming the live holder. */
-export async function acquireLock(dir: string): Promise<RunLock> {
+/**
+ * Acquire the lock or throw {@link InputError} naming the live holder.
+ * `takeOver`: treat a lock held from another host as stale too. Only for
+ * callers that know no other writer can run, such as a cluster scheduler that
+ * runs one instance of each array task (a node lost mid-run leaves a lock no
+ * process on this host can check).
+ */
+export async function acquireLock(
+  dir: string,
+  options: { takeOver?: boolean } = {},
+): Promise<RunLock> {
   const path = runPath(dir, "lock");
   const me: LockInfo = {
     pid: Deno.pid,
@@ -49,9 +58,12 @@ export async function acquireLock(dir: string): Promise<RunLock> {
       if (!(err instanceof Deno.errors.AlreadyExists)) throw err;
     }
     const holder = await readLock(path);
-    if (holder !== null && isAlive(holder)) {
+    const otherHost = holder !== null && holder.host !== Deno.hostname();
+    if (holder !== null && isAlive(holder) && !(options.takeOver && otherHost)) {
       throw new InputError(
-        `run is being written by process ${holder.pid} on ${holder.host} since ${holder.startedAt}: wait for it, stop it, or use another directory`,
+        `run is being written by process ${holder.pid} on ${holder.host} since ${holder.startedAt}: wait for it, stop it, or use another directory${
+          otherHost ? " (if that host is gone, resume with --take-lock)" : ""
+        }`,
         { file: path },
       );
     }

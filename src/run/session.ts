@@ -190,10 +190,10 @@ async function sampleFromStart(
 /** Continue a run from its checkpoint, to `steps` total (default: the recorded target). */
 export async function resumeRun(
   dir: string,
-  options: SessionOptions & { steps?: number; addSteps?: number },
+  options: SessionOptions & { steps?: number; addSteps?: number; takeLock?: boolean },
 ): Promise<SessionResult & { notes: string[] }> {
   const manifest = await readManifest(dir);
-  const lock: RunLock = await acquireLock(dir);
+  const lock: RunLock = await acquireLock(dir, { takeOver: options.takeLock });
   const notes: string[] = [];
   const note = (n: string) => {
     notes.push(n);

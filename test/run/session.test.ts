@@ -107,3 +107,31 @@ describe("run --until-converged", () => {
     expect(s.steps).toBe(outs[0]);
   });
 });
+
+describe("lock from another host", () => {
+  test("resume refuses a lock held from another host unless --take-lock", async () => {
+    const spec = await writeSmallProblem();
+    const dir = spec.replace(/spec\.toml$/, "run");
+    expect((await cli(["run", spec, "--out", dir, "--steps", "100", "--threads", "1"])).code).toBe(
+      0,
+    );
+    // A lock left by a process on a node that is gone (another host name).
+    await Deno.writeTextFile(
+      `${dir}/lock`,
+      JSON.stringify({
+        pid: 4242,
+        host: "lost-node-07",
+        startTicks: 1,
+        startedAt: "2026-01-01T00:00:00Z",
+      }),
+    );
+    const refused = await cli(["resume", dir, "--more", "10", "--threads", "1"]);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toMatch(
+      /run is being written by process 4242 on lost-node-07 .*resume with --take-lock/,
+    );
+    const taken = await cli(["resume", dir, "--more", "10", "--threads", "1", "--take-lock"]);
+    expect(taken.code).toBe(0);
+    expect(taken.stdout).toMatch(/finished at step 110/);
+  });
+});

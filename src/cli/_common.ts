@@ -112,39 +112,7 @@ export function chainNotice(
     : `warning: ${file}: damaged after step ${read.stepsOnDisk} (${read.detail}): using the ${read.stepsOnDisk} valid steps before it; the rest is ignored`;
 }
 
-/**
- * Check an ensemble size against the free parameters. The affine-invariant
- * ensemble needs more walkers than twice the dimensions and two equal halves
- * (Goodman & Weare 2010, Commun. Appl. Math. Comput. Sci. 5, 65; the
- * "more than 2 × dimensions" rule is common practice, no source).
- * Throws {@link InputError} located at `where` (spec key or CLI option).
- */
-export function checkWalkers(
-  walkers: number,
-  dimensions: number,
-  where: { file?: string; field: string },
-): void {
-  if (dimensions === 0) {
-    throw new InputError(
-      "found every parameter fixed: expected at least one parameter with a prior to sample",
-      { file: where.file, field: "parameters" },
-    );
-  }
-  if (walkers <= 2 * dimensions) {
-    throw new InputError(
-      `found walkers=${walkers} for ${dimensions} free parameters: expected more than 2 × ${dimensions} = ${
-        2 * dimensions
-      } (and even), e.g. ${2 * dimensions + 2}`,
-      where,
-    );
-  }
-  if (walkers % 2 !== 0) {
-    throw new InputError(
-      `found walkers=${walkers}: expected an even number (two equal halves), e.g. ${walkers + 1}`,
-      where,
-    );
-  }
-}
+export { checkWalkers } from "../run/session.ts";
 
 /** Format seconds as `1h02m`, `3m05s`, `12s`. */
 export function formatDuration(seconds: number): string {

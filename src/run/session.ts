@@ -73,45 +73,65 @@ export interface SessionOptions {
 
 const MODEL_URL = new URL("../model/posterior.ts", import.meta.url).href;
 
+/**
+ * Check a walker count against the number of free parameters: the stretch
+ * move needs more walkers than twice the dimensions (Goodman & Weare 2010 use
+ * an ensemble spanning the space), and the red/blue split needs an even count.
+ * Throws {@link InputError} naming `where`.
+ */
+export function checkWalkers(
+  walkers: number,
+  dimensions: number,
+  where: { file?: string; field: string },
+): void {
+  if (dimensions === 0) {
+    throw new InputError(
+      "found every parameter fixed: expected at least one parameter with a prior to sample",
+      { file: where.file, field: "parameters" },
+    );
+  }
+  if (walkers <= 2 * dimensions) {
+    throw new InputError(
+      `found walkers=${walkers} for ${dimensions} free parameters: expected more than 2 × ${dimensions} = ${
+        2 * dimensions
+      } (and even), e.g. ${2 * dimensions + 2}`,
+      where,
+    );
+  }
+  if (walkers % 2 !== 0) {
+    throw new InputError(
+      `found walkers=${walkers}: expected an even number (two equal halves), e.g. ${walkers + 1}`,
+      where,
+    );
+  }
+}
+
 /** Create a run directory and sample `steps` steps. */
 export async function startRun(
   dir: string,
   problem: Problem,
   options: SessionOptions & { steps: number; walkers: number; seed: number; thin?: number },
 ): Promise<SessionResult> {
+  const spec = {
+    ...problem.spec,
+    sampler: {
+      ...problem.spec.sampler,
+      steps: options.steps,
+      walkers: options.walkers,
+      seed: options.seed,
+      thin: options.thin ?? problem.spec.sampler.thin,
+    },
+  };
+  const payload: ModelPayload = { spec, data: problem.data };
+  const model = new CompiledModel(payload);
+  // Before anything is written: a refused walker count leaves no folder behind.
+  checkWalkers(options.walkers, model.dimensions, {
+    file: spec.specPath,
+    field: "sampler.walkers",
+  });
   await prepareDir(dir);
   const lock = await acquireLock(dir);
   try {
-    const spec = {
-      ...problem.spec,
-      sampler: {
-        ...problem.spec.sampler,
-        steps: options.steps,
-        walkers: options.walkers,
-        seed: options.seed,
-        thin: options.thin ?? problem.spec.sampler.thin,
-      },
-    };
-    const payload: ModelPayload = { spec, data: problem.data };
-    const model = new CompiledModel(payload);
-    const dims = model.dimensions;
-    if (dims === 0) {
-      throw new InputError("nothing to sample: every parameter is fixed", { file: spec.specPath });
-    }
-    if (options.walkers <= 2 * dims) {
-      throw new InputError(
-        `walkers must exceed twice the dimensions: walkers=${options.walkers}, dimensions=${dims}; use at least ${
-          2 * dims + 2
-        }`,
-        { file: spec.specPath, field: "sampler.walkers" },
-      );
-    }
-    if (options.walkers % 2 !== 0) {
-      throw new InputError(
-        `walkers must be even (two equal halves): walkers=${options.walkers}`,
-        { file: spec.specPath, field: "sampler.walkers" },
-      );
-    }
     const names = spec.instruments.map((i) => i.name);
     const manifest: Manifest = {
       format: "rvwalk-run",

@@ -5,7 +5,7 @@ import { runPath } from "../run/layout.ts";
 import { resumeRun, type SessionResult, startRun } from "../run/session.ts";
 import { convergenceStopper } from "../run/stopper.ts";
 import { loadProblem } from "../spec/mod.ts";
-import { fillStartValues } from "../search/mod.ts";
+import { fillStartValues, startsGiven } from "../search/mod.ts";
 import {
   checkWalkers,
   type Command,
@@ -62,13 +62,20 @@ PID) flushes the chain and checkpoints; continue with \`rvwalk resume DIR\`.`,
     const loaded = await loadProblem(positionals[0]!);
     for (const n of loaded.notes) say(`note: ${n}`);
     for (const w of loaded.warnings) warn(`warning: ${w}`);
+    const interactive = !values["no-ui"] && Deno.stdout.isTerminal() && Deno.stdin.isTerminal();
+    const inBackground = values.detach || interactive;
     // Free parameters without a start value: periodogram search + MAP fit first.
-    const filled = fillStartValues(loaded);
-    if (filled.filled.length > 0) {
+    // A background run does this once, in the child that samples.
+    let problem = loaded;
+    const { missing } = startsGiven(loaded);
+    if (missing.length > 0 && inBackground) {
+      say(`start values missing for ${missing.join(", ")}: the run searches and optimises first`);
+    } else if (missing.length > 0) {
+      const filled = fillStartValues(loaded);
       say(`start values missing for ${filled.filled.join(", ")}: searching and optimising`);
       for (const line of filled.report) say(`  ${line}`);
+      problem = filled.problem;
     }
-    const problem = filled.problem;
     const s = problem.spec.sampler;
     const steps = intOption(values.steps, "steps", s.steps)!;
     const walkers = intOption(values.walkers, "walkers", s.walkers)!;
@@ -88,8 +95,7 @@ PID) flushes the chain and checkpoints; continue with \`rvwalk resume DIR\`.`,
     );
     const untilConverged = values["until-converged"] ?? s.untilConverged;
     const thin = intOption(values.thin, "thin", s.thin)!;
-    const interactive = !values["no-ui"] && Deno.stdout.isTerminal() && Deno.stdin.isTerminal();
-    if (values.detach || interactive) {
+    if (inBackground) {
       const childArgs = [
         "run",
         positionals[0]!,

@@ -235,6 +235,22 @@ export interface FilledStart {
 }
 
 /**
+ * Which free parameters have a start value written in the spec and which do
+ * not (instruments given defaults count as missing). Cheap: no search.
+ */
+export function startsGiven(problem: Problem): { given: Set<string>; missing: string[] } {
+  const given = new Set<string>();
+  const base = new CompiledModel({ spec: problem.spec, data: problem.data });
+  forEachParam(problem.spec, (key, param, owner) => {
+    if (param.prior.kind === "fixed") return param;
+    if (param.start !== undefined && owner !== "defaulted") given.add(key);
+    return param;
+  });
+  const missing = base.parameters.map((p) => p.key).filter((k) => !given.has(k));
+  return { given, missing };
+}
+
+/**
  * Gives every free parameter of `problem` a start value. Starts written in
  * the spec are kept; defaulted instruments (no `[[instrument]]` table) count
  * as not written. When nothing is missing the problem is returned unchanged.
@@ -264,14 +280,7 @@ export interface FilledStart {
 export function fillStartValues(problem: Problem, options: FillStartOptions = {}): FilledStart {
   const spec = problem.spec;
   const data = problem.data;
-  const given = new Set<string>();
-  const base = new CompiledModel({ spec, data });
-  forEachParam(spec, (key, param, owner) => {
-    if (param.prior.kind === "fixed") return param;
-    if (param.start !== undefined && owner !== "defaulted") given.add(key);
-    return param;
-  });
-  const missing = base.parameters.map((p) => p.key).filter((k) => !given.has(k));
+  const { given, missing } = startsGiven(problem);
   if (missing.length === 0) {
     return { problem, report: [], map: null, filled: [] };
   }

@@ -50,6 +50,7 @@ export {
   mapFit,
   type MapFitOptions,
   type MapFitResult,
+  startsGiven,
 } from "./map_fit.ts";
 export {
   type DraftData,

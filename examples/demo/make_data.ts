@@ -6,7 +6,7 @@
  * @module
  */
 import seedrandom from "seedrandom";
-import { addKeplerianRv, timePeriastronFromConjunction } from "../../src/model/keplerian.ts";
+import { plantedRv } from "../_planted.ts";
 
 const rng = seedrandom("tavi-2207-demo-2");
 const normal = () => {
@@ -65,21 +65,7 @@ for (const ins of TRUTH.instruments) {
     times[i] = Math.round((ins.from + (ins.to - ins.from) * rng()) * 1e4) / 1e4;
   }
   times.sort();
-  const model = new Float64Array(ins.n);
-  for (const p of TRUTH.planets) {
-    const w = (p.omega_deg * Math.PI) / 180;
-    addKeplerianRv(times, {
-      period: p.period,
-      timePeriastron: timePeriastronFromConjunction(p.tc, {
-        period: p.period,
-        eccentricity: p.eccentricity,
-        argPeriastron: w,
-      }),
-      semiAmplitude: p.semi_amplitude,
-      eccentricity: p.eccentricity,
-      argPeriastron: w,
-    }, { out: model });
-  }
+  const model = plantedRv(times, TRUTH.planets);
   for (let i = 0; i < ins.n; i++) {
     const s = ins.err[0]! + (ins.err[1]! - ins.err[0]!) * rng();
     const noise = Math.sqrt(s * s + ins.jitter * ins.jitter) * normal();

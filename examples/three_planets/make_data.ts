@@ -10,7 +10,7 @@
  * @module
  */
 import seedrandom from "seedrandom";
-import { addKeplerianRv, timePeriastronFromConjunction } from "../../src/model/keplerian.ts";
+import { plantedRv } from "../_planted.ts";
 
 const SEED = "quellan-318";
 const rng = seedrandom(SEED);
@@ -92,21 +92,7 @@ for (const ins of TRUTH.instruments) {
     times[i++] = Math.round(t * 1e4) / 1e4;
   }
   times.sort();
-  const model = new Float64Array(ins.n);
-  for (const p of TRUTH.planets) {
-    const w = (p.omega_deg * Math.PI) / 180;
-    addKeplerianRv(times, {
-      period: p.period,
-      timePeriastron: timePeriastronFromConjunction(p.tc, {
-        period: p.period,
-        eccentricity: p.eccentricity,
-        argPeriastron: w,
-      }),
-      semiAmplitude: p.semi_amplitude,
-      eccentricity: p.eccentricity,
-      argPeriastron: w,
-    }, { out: model });
-  }
+  const model = plantedRv(times, TRUTH.planets);
   for (let i = 0; i < ins.n; i++) {
     const s = ins.err[0]! + (ins.err[1]! - ins.err[0]!) * rng();
     const noise = Math.sqrt(s * s + ins.jitter * ins.jitter) * normal();

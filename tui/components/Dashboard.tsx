@@ -1,14 +1,13 @@
 import { Box } from "ink";
 import type { Body, Screen } from "../screen.ts";
 import { ConvergencePanel } from "./ConvergencePanel.tsx";
-import { DensityPanel } from "./DensityPanel.tsx";
 import { FooterBar } from "./FooterBar.tsx";
 import { HeaderBar } from "./HeaderBar.tsx";
 import { HelpPanel } from "./HelpPanel.tsx";
 import { PlanetsPanel } from "./PlanetsPanel.tsx";
+import { PlotPanel } from "./PlotPanel.tsx";
 import { PosteriorPanel } from "./PosteriorPanel.tsx";
 import { TabBar } from "./TabBar.tsx";
-import { TracePanel } from "./TracePanel.tsx";
 import { WaitingPanel } from "./WaitingPanel.tsx";
 
 /** Props of {@link Dashboard}. */
@@ -48,9 +47,8 @@ function bodyView(body: Body, color: boolean) {
     case "posterior":
       return <PosteriorPanel body={body} color={color} />;
     case "pair":
-      return <DensityPanel body={body} color={color} />;
     case "trace":
-      return <TracePanel body={body} color={color} />;
+      return <PlotPanel body={body} color={color} />;
     case "planets":
       return <PlanetsPanel body={body} color={color} />;
   }

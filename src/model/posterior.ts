@@ -55,6 +55,19 @@ interface Slot {
   positive: boolean;
 }
 
+/** Options of {@link CompiledModel.predict}. */
+export interface PredictOptions {
+  /** Times to predict at. @default the data's times */
+  readonly times?: Float64Array;
+  /** Instrument index per time. @default the data's instruments */
+  readonly instrument?: Int32Array;
+  /** `no-offsets`: planets only, without offsets and trend. @default "all" */
+  readonly parts?: "all" | "no-offsets";
+}
+
+// Shared default, so that the per-evaluation call allocates nothing.
+const NO_OPTIONS: PredictOptions = Object.freeze({});
+
 /** A compiled model: parameter layout plus evaluation functions. */
 export class CompiledModel {
   readonly spec: ModelSpec;
@@ -299,7 +312,7 @@ export class CompiledModel {
   predict(
     phys: Float64Array,
     out: Float64Array,
-    options: { times?: Float64Array; instrument?: Int32Array; parts?: "all" | "no-offsets" } = {},
+    options: PredictOptions = NO_OPTIONS,
   ): boolean {
     const v = this.#fill(phys);
     const times = options.times ?? this.data.time;

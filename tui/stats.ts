@@ -8,6 +8,10 @@
  * `src/diagnostics/` and arrive in the snapshot; here they are only judged.
  * @module
  */
+import { quantileSorted } from "../src/diagnostics/quantile.ts";
+
+/** Hyndman & Fan (1996) definition 7 quantile of sorted draws (shared definition). */
+export { quantileSorted };
 
 /** Probability below the central 68.27% interval: Φ(−1), the ±1σ mass of a Gaussian. */
 export const LOWER_68 = 0.15865525393145707;
@@ -30,26 +34,6 @@ export function sortedFinite(values: ArrayLike<number>): Float64Array {
     if (Number.isFinite(v)) out[j++] = v;
   }
   return out.sort();
-}
-
-/**
- * Quantile `p` of ascending-sorted values by linear interpolation between
- * order statistics.
- *
- * Method: Hyndman & Fan 1996, The American Statistician 50(4), 361,
- * Definition 7: with h = (n − 1) p, Q(p) = x[⌊h⌋] + (h − ⌊h⌋)(x[⌊h⌋+1] − x[⌊h⌋])
- * (0-based indices).
- *
- * Returns NaN for an empty array or `p` outside [0, 1].
- */
-export function quantileSorted(sorted: ArrayLike<number>, p: number): number {
-  const n = sorted.length;
-  if (n === 0 || !(p >= 0 && p <= 1)) return NaN;
-  const h = (n - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.min(lo + 1, n - 1);
-  const xlo = sorted[lo]!;
-  return xlo + (h - lo) * (sorted[hi]! - xlo);
 }
 
 /** Median and central 68% interval of a set of draws. */

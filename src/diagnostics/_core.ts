@@ -3,6 +3,10 @@
  * Draws are held chain-major: chain m occupies `[m*n, (m+1)*n)`.
  * @module
  */
+import { quantileSorted } from "./quantile.ts";
+
+/** Hyndman & Fan (1996) definition 7 quantile of sorted draws (shared definition). */
+export { quantileSorted };
 
 import type { ChainView } from "./chain_view.ts";
 import { accumulateAutocovariance } from "./_fft.ts";
@@ -163,20 +167,6 @@ export function essOfSplit(c: Chains): number {
 /** Ascending copy of the draws (radix sort; draws must be finite). */
 export function sortedCopy(x: Float64Array): Float64Array {
   return sortWithIndex(x).sorted;
-}
-
-/**
- * Sample quantile, Hyndman & Fan (1996), Amer. Statist. 50, 361, definition 7
- * (linear interpolation between order statistics at (S-1)p).
- */
-export function quantileSorted(sorted: Float64Array, p: number): number {
-  const s = sorted.length;
-  if (s === 0) return NaN;
-  const h = (s - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.min(lo + 1, s - 1);
-  const a = sorted[lo]!;
-  return a + (h - lo) * (sorted[hi]! - a);
 }
 
 /**

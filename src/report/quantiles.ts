@@ -2,6 +2,10 @@
  * Posterior intervals from draws.
  * @module
  */
+import { quantileSorted } from "../diagnostics/quantile.ts";
+
+/** Hyndman & Fan (1996) definition 7 quantile of sorted draws (shared definition). */
+export { quantileSorted };
 
 /** Median and central 68% / 95% intervals, in the parameter's unit. */
 export interface Interval {
@@ -15,20 +19,6 @@ export interface Interval {
   /** 97.5th percentile */
   readonly hi95: number;
   readonly unit: string;
-}
-
-/**
- * Quantile of sorted values by linear interpolation between order statistics,
- * definition 7 of Hyndman & Fan (1996, The American Statistician 50, 361):
- * h = (n − 1)p, Q = x[⌊h⌋] + (h − ⌊h⌋)(x[⌊h⌋+1] − x[⌊h⌋]). NaN for no values.
- */
-export function quantileSorted(sorted: Float64Array, p: number): number {
-  const n = sorted.length;
-  if (n === 0 || !(p >= 0 && p <= 1)) return NaN;
-  const h = (n - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.min(lo + 1, n - 1);
-  return sorted[lo]! + (h - lo) * (sorted[hi]! - sorted[lo]!);
 }
 
 /** Interval of unsorted draws (NaN draws are ignored). */

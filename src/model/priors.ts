@@ -7,6 +7,7 @@
  * its inverse (safeguarded Newton).
  * @module
  */
+import { normalQuantile as acklamQuantile } from "../diagnostics/normal_quantile.ts";
 
 /** A prior on one scalar parameter. */
 export type Prior =
@@ -263,69 +264,18 @@ export function normalCdf(z: number): number {
   return 0.5 * erfc(-z / Math.SQRT2);
 }
 
-// Acklam (2003), "An algorithm for computing the inverse normal cumulative
-// distribution function" (web note; coefficients recalled from memory and
-// checked in the tests through Φ(Φ⁻¹(p)) = p): rational approximations with
-// relative error 1.15e-9, refined below by one Halley step.
-const ACKLAM_A = [
-  -3.969683028665376e+01,
-  2.209460984245205e+02,
-  -2.759285104469687e+02,
-  1.383577518672690e+02,
-  -3.066479806614716e+01,
-  2.506628277459239e+00,
-];
-const ACKLAM_B = [
-  -5.447609879822406e+01,
-  1.615858368580409e+02,
-  -1.556989798598866e+02,
-  6.680131188771972e+01,
-  -1.328068155288572e+01,
-];
-const ACKLAM_C = [
-  -7.784894002430293e-03,
-  -3.223964580411365e-01,
-  -2.400758277161838e+00,
-  -2.549732539343734e+00,
-  4.374664141464968e+00,
-  2.938163982698783e+00,
-];
-const ACKLAM_D = [
-  7.784695709041462e-03,
-  3.224671290700398e-01,
-  2.445134137142996e+00,
-  3.754408661907416e+00,
-];
-
 /**
  * Standard normal quantile Φ⁻¹(p) for p ∈ [0, 1] (±Infinity at the ends, `NaN`
- * outside). Acklam's rational approximation then one Halley step on
- * Φ(z) − p = 0 (Acklam's own suggested refinement), giving ~1e-15 relative.
+ * outside): Acklam's (2003) rational approximation (relative error 1.15e-9;
+ * the one in `src/diagnostics/normal_quantile.ts`, used there as is for rank
+ * normalisation) then one Halley step on Φ(z) − p = 0 (Acklam's own suggested
+ * refinement), giving ~1e-15 relative.
  */
 export function normalQuantile(p: number): number {
   if (!(p >= 0 && p <= 1)) return NaN;
   if (p === 0) return -Infinity;
   if (p === 1) return Infinity;
-  const [a0, a1, a2, a3, a4, a5] = ACKLAM_A as [number, number, number, number, number, number];
-  const [b0, b1, b2, b3, b4] = ACKLAM_B as [number, number, number, number, number];
-  const [c0, c1, c2, c3, c4, c5] = ACKLAM_C as [number, number, number, number, number, number];
-  const [d0, d1, d2, d3] = ACKLAM_D as [number, number, number, number];
-  const pLow = 0.02425;
-  let z: number;
-  if (p < pLow) {
-    const q = Math.sqrt(-2 * Math.log(p));
-    z = (((((c0 * q + c1) * q + c2) * q + c3) * q + c4) * q + c5) /
-      ((((d0 * q + d1) * q + d2) * q + d3) * q + 1);
-  } else if (p <= 1 - pLow) {
-    const q = p - 0.5;
-    const r = q * q;
-    z = (((((a0 * r + a1) * r + a2) * r + a3) * r + a4) * r + a5) * q /
-      (((((b0 * r + b1) * r + b2) * r + b3) * r + b4) * r + 1);
-  } else {
-    const q = Math.sqrt(-2 * Math.log1p(-p));
-    z = -(((((c0 * q + c1) * q + c2) * q + c3) * q + c4) * q + c5) /
-      ((((d0 * q + d1) * q + d2) * q + d3) * q + 1);
-  }
+  const z = acklamQuantile(p);
   // Halley step; the error term is taken in the tail that keeps precision.
   // Φ(z) − p, written (1 − p) − Φ(−z) for z ≥ 0 (1 − p is exact there).
   const err = z < 0 ? normalCdf(z) - p : (1 - p) - normalCdf(-z);

@@ -114,16 +114,8 @@ export function chainNotice(
 
 export { checkWalkers } from "../run/session.ts";
 
-/** Format seconds as `1h02m`, `3m05s`, `12s`. */
-export function formatDuration(seconds: number): string {
-  if (!Number.isFinite(seconds) || seconds < 0) return "?";
-  const s = Math.round(seconds);
-  if (s >= 3600) {
-    return `${Math.floor(s / 3600)}h${String(Math.floor((s % 3600) / 60)).padStart(2, "0")}m`;
-  }
-  if (s >= 60) return `${Math.floor(s / 60)}m${String(s % 60).padStart(2, "0")}s`;
-  return `${s}s`;
-}
+/** Durations are written as on the dashboard (`42s`, `3m 05s`, `1h 02m`, `2d 03h`). */
+export { formatDuration } from "../../tui/format.ts";
 
 /** Write a line to stdout. */
 export function say(line = ""): void {
